@@ -1,0 +1,119 @@
+// Public result types of the geometry library. Lengths in millimetres, angles
+// in degrees counter-clockwise from +x, origin at the plate centre, y up.
+// No paper.js types appear here: callers on the server, in the browser and in
+// the exporters see plain data only.
+
+export type Point = [number, number]
+
+export type HoleKind = 'pocket' | 'access' | 'centre' | 'index'
+
+/** A round through-hole in the plate. */
+export interface Hole {
+  /** Stable id within one plate, e.g. `pocket-0`, `access-2`, `centre`, `index-0`. */
+  id: string
+  kind: HoleKind
+  x: number
+  y: number
+  diameter: number
+}
+
+/** The stepped ring round a pocket where the pan's rim sits flush. */
+export interface Rabbet {
+  pocketId: string
+  x: number
+  y: number
+  /** Outside diameter of the rabbet (pocket diameter + 2 * rabbet width). */
+  diameter: number
+  /** Depth below the top face of the plate. */
+  depth: number
+}
+
+/** A caster's top (mounting) plate, turned square to the radial line. */
+export interface CasterMount {
+  pocketId: string
+  /** Angle of the radial line through the pocket centre. */
+  angle: number
+  /** Rectangle corners, counter-clockwise. */
+  corners: Point[]
+  bolts: { x: number; y: number; diameter: number }[]
+}
+
+/** Where a pocket reaches under the trunk, the notch the tube needs. */
+export interface TubeNotch {
+  pocketId: string
+  /** Centre angle of the notch round the tube. */
+  angle: number
+  startAngle: number
+  endAngle: number
+  /** Angular span in degrees. */
+  span: number
+  /** Width of the notch unrolled at the tube's outside circumference. */
+  width: number
+  /** Distance along the unrolled outside circumference from the clocking axis to the notch centre. */
+  offsetAlongWrap: number
+}
+
+/** A lobe tip, for drawing handles and for per-lobe overrides. */
+export interface LobeTip {
+  index: number
+  angle: number
+  /** Distance from the plate centre to the tip. */
+  radius: number
+  x: number
+  y: number
+}
+
+export type Severity = 'error' | 'warning'
+
+export interface Finding {
+  code: string
+  severity: Severity
+  message: string
+  /** The place it concerns, where there is one. */
+  at?: { x: number; y: number; radius?: number }
+  /** Ids of the holes it concerns. */
+  holeIds?: string[]
+  /** The parameter path most closely concerned, e.g. `casterOffset`. */
+  field?: string
+}
+
+export interface Metrics {
+  /** Outline area minus through-holes, mm2. */
+  area: number
+  /** Outline perimeter, mm. */
+  perimeter: number
+  width: number
+  height: number
+  bounds: { minX: number; minY: number; maxX: number; maxY: number }
+  /** Smallest circle enclosing the outline. */
+  enclosingCircle: { x: number; y: number; radius: number }
+  /** Total plate thickness (layers * sheet thickness), mm. */
+  thickness: number
+  /** Net wood volume: area * thickness less rabbets, mm3. */
+  volume: number
+  /** kg, from the plywood density. */
+  weight: number
+  /** kg/m3 and where the figure comes from. */
+  density: { value: number; source: string }
+  /** Gap between the floor and the underside of the plate, mm. */
+  floorGap: number
+}
+
+export interface Plate {
+  /** The parsed parameters the plate was built from. */
+  params: import('./params').PlateParams
+  /** Outside profile as a polygon: counter-clockwise, first point not repeated, chord error <= 0.1 mm. */
+  outline: Point[]
+  /** The same outline as SVG path data with cubic curves, in plate coordinates (y up). */
+  outlinePath: string
+  holes: Hole[]
+  trunk: { x: number; y: number; diameter: number; innerDiameter: number }
+  rabbets: Rabbet[]
+  casterMounts: CasterMount[]
+  notches: TubeNotch[]
+  lobeTips: LobeTip[]
+  /** The clocking axis: the line through the centre and the index holes. */
+  axis: { angle: number; from: Point; to: Point }
+  findings: Finding[]
+  metrics: Metrics
+}

@@ -1,0 +1,28 @@
+// Rootplate: Nuxt 4 with the repository root as the source folder.
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  srcDir: '.',
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils'],
+  css: [
+    '@fontsource/ibm-plex-sans/400.css',
+    '@fontsource/ibm-plex-sans/500.css',
+    '@fontsource/ibm-plex-sans/600.css',
+    '@fontsource/ibm-plex-mono/400.css',
+    '~/assets/css/main.css',
+  ],
+  tailwindcss: { viewer: false, cssPath: false },
+  typescript: { strict: true },
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Rootplate',
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/logo.svg' }],
+      meta: [{ name: 'viewport', content: 'width=device-width, initial-scale=1' }],
+    },
+  },
+  nitro: {
+    externals: { external: ['paper'] },
+  },
+})

@@ -1,0 +1,114 @@
+import { sql } from 'drizzle-orm'
+import {
+  pgTable, pgEnum, uuid, text, integer, jsonb, timestamp, date, index, uniqueIndex, check,
+} from 'drizzle-orm/pg-core'
+
+export const roleEnum = pgEnum('member_role', ['lead', 'designer', 'builder', 'viewer'])
+
+// Shared columns, defined once.
+const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+const timestamps = {
+  createdAt: createdAt(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow().$onUpdate(() => new Date()),
+}
+const id = () => uuid('id').primaryKey().defaultRandom()
+
+export const users = pgTable('users', {
+  id: id(),
+  email: text('email').notNull(),
+  name: text('name').notNull(),
+  passwordHash: text('password_hash').notNull(),
+  ...timestamps,
+}, t => [
+  uniqueIndex('users_email_key').on(sql`lower(${t.email})`),
+])
+
+export const shops = pgTable('shops', {
+  id: id(),
+  name: text('name').notNull(),
+  ...timestamps,
+})
+
+export const memberships = pgTable('memberships', {
+  id: id(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  role: roleEnum('role').notNull(),
+  ...timestamps,
+}, t => [
+  uniqueIndex('memberships_user_shop_key').on(t.userId, t.shopId),
+  index('memberships_shop_idx').on(t.shopId),
+])
+
+export const shows = pgTable('shows', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  venue: text('venue'),
+  opensOn: date('opens_on'),
+  ...timestamps,
+}, t => [
+  index('shows_shop_idx').on(t.shopId),
+])
+
+export const designs = pgTable('designs', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  showId: uuid('show_id').references(() => shows.id, { onDelete: 'set null' }),
+  name: text('name').notNull(),
+  sizeLabel: text('size_label'),
+  // Number of the newest revision; the guarded update on this column is what
+  // serialises racing saves (see services/designs.ts).
+  latestRevision: integer('latest_revision').notNull().default(0),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  index('designs_shop_idx').on(t.shopId),
+  index('designs_show_idx').on(t.showId),
+])
+
+// Immutable: no updated_at, and a trigger in the migrations refuses updates.
+export const revisions = pgTable('revisions', {
+  id: id(),
+  designId: uuid('design_id').notNull().references(() => designs.id, { onDelete: 'cascade' }),
+  number: integer('number').notNull(),
+  params: jsonb('params').notNull(),
+  note: text('note').notNull().default(''),
+  authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+}, t => [
+  uniqueIndex('revisions_design_number_key').on(t.designId, t.number),
+  check('revisions_number_positive', sql`${t.number} > 0`),
+])
+
+export const activity = pgTable('activity', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  userId: uuid('user_id').references(() => users.id, { onDelete: 'set null' }),
+  designId: uuid('design_id').references(() => designs.id, { onDelete: 'cascade' }),
+  action: text('action').notNull(),
+  detail: jsonb('detail').notNull().default({}),
+  createdAt: createdAt(),
+}, t => [
+  index('activity_shop_time_idx').on(t.shopId, t.createdAt),
+])
+
+// Failed sign-ins, kept so the limit holds across server instances.
+export const loginFailures = pgTable('login_failures', {
+  id: id(),
+  email: text('email').notNull(),
+  address: text('address').notNull(),
+  createdAt: createdAt(),
+}, t => [
+  index('login_failures_email_time_idx').on(t.email, t.createdAt),
+  index('login_failures_address_time_idx').on(t.address, t.createdAt),
+])
+
+export type User = typeof users.$inferSelect
+export type Shop = typeof shops.$inferSelect
+export type Membership = typeof memberships.$inferSelect
+export type Show = typeof shows.$inferSelect
+export type Design = typeof designs.$inferSelect
+export type Revision = typeof revisions.$inferSelect
+export type Activity = typeof activity.$inferSelect
+export type Role = (typeof roleEnum.enumValues)[number]

@@ -1,0 +1,216 @@
+import { and, desc, eq, sql } from 'drizzle-orm'
+import type { Database } from '../utils/db'
+import { activity, designs, revisions, shows, users } from '../database/schema'
+
+export interface Actor { userId: string; shopId: string }
+
+export interface RevisionSummary {
+  id: string
+  number: number
+  note: string
+  createdAt: Date
+  author: { id: string | null; name: string | null }
+}
+
+export interface RevisionDetail extends RevisionSummary {
+  designId: string
+  params: unknown
+}
+
+export interface DesignListItem {
+  id: string
+  name: string
+  sizeLabel: string | null
+  show: { id: string; name: string } | null
+  latestRevision: number
+  updatedAt: Date
+  author: string | null
+}
+
+export interface DesignDetail {
+  id: string
+  name: string
+  sizeLabel: string | null
+  show: { id: string; name: string } | null
+  createdAt: Date
+  updatedAt: Date
+  latest: RevisionDetail
+}
+
+const revisionColumns = {
+  id: revisions.id,
+  designId: revisions.designId,
+  number: revisions.number,
+  note: revisions.note,
+  createdAt: revisions.createdAt,
+  authorId: revisions.authorId,
+  authorName: users.name,
+}
+
+type RevisionRow = { id: string; designId: string; number: number; note: string; createdAt: Date; authorId: string | null; authorName: string | null }
+
+function summary(row: RevisionRow): RevisionSummary {
+  return { id: row.id, number: row.number, note: row.note, createdAt: row.createdAt, author: { id: row.authorId, name: row.authorName } }
+}
+
+/** Designs of one shop with the author of their latest revision, newest first. */
+export async function listDesigns(db: Database, shopId: string): Promise<DesignListItem[]> {
+  const rows = await db.select({
+    id: designs.id,
+    name: designs.name,
+    sizeLabel: designs.sizeLabel,
+    showId: shows.id,
+    showName: shows.name,
+    latestRevision: designs.latestRevision,
+    updatedAt: designs.updatedAt,
+    author: users.name,
+  }).from(designs)
+    .leftJoin(shows, eq(shows.id, designs.showId))
+    .leftJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
+    .leftJoin(users, eq(users.id, revisions.authorId))
+    .where(eq(designs.shopId, shopId))
+    .orderBy(desc(designs.updatedAt), designs.name)
+  return rows.map(r => ({
+    id: r.id,
+    name: r.name,
+    sizeLabel: r.sizeLabel,
+    show: r.showId && r.showName ? { id: r.showId, name: r.showName } : null,
+    latestRevision: r.latestRevision,
+    updatedAt: r.updatedAt,
+    author: r.author,
+  }))
+}
+
+export async function listShows(db: Database, shopId: string) {
+  return db.select({ id: shows.id, name: shows.name, venue: shows.venue, opensOn: shows.opensOn })
+    .from(shows).where(eq(shows.shopId, shopId)).orderBy(shows.name)
+}
+
+/** One design of the shop with its latest revision; null when absent or in another shop. */
+export async function getDesign(db: Database, shopId: string, designId: string): Promise<DesignDetail | null> {
+  const [row] = await db.select({
+    id: designs.id,
+    name: designs.name,
+    sizeLabel: designs.sizeLabel,
+    showId: shows.id,
+    showName: shows.name,
+    createdAt: designs.createdAt,
+    updatedAt: designs.updatedAt,
+    latestRevision: designs.latestRevision,
+  }).from(designs)
+    .leftJoin(shows, eq(shows.id, designs.showId))
+    .where(and(eq(designs.id, designId), eq(designs.shopId, shopId)))
+  if (!row) return null
+  const [latest] = await db.select({ ...revisionColumns, params: revisions.params }).from(revisions)
+    .leftJoin(users, eq(users.id, revisions.authorId))
+    .where(and(eq(revisions.designId, designId), eq(revisions.number, row.latestRevision)))
+  if (!latest) return null
+  return {
+    id: row.id,
+    name: row.name,
+    sizeLabel: row.sizeLabel,
+    show: row.showId && row.showName ? { id: row.showId, name: row.showName } : null,
+    createdAt: row.createdAt,
+    updatedAt: row.updatedAt,
+    latest: { ...summary(latest), designId: latest.designId, params: latest.params },
+  }
+}
+
+/** Every revision of a design of the shop, newest first; null when the design is not the shop's. */
+export async function listRevisions(db: Database, shopId: string, designId: string): Promise<RevisionSummary[] | null> {
+  const owner = await db.query.designs.findFirst({ columns: { id: true }, where: and(eq(designs.id, designId), eq(designs.shopId, shopId)) })
+  if (!owner) return null
+  const rows = await db.select(revisionColumns).from(revisions)
+    .leftJoin(users, eq(users.id, revisions.authorId))
+    .where(eq(revisions.designId, designId))
+    .orderBy(desc(revisions.number))
+  return rows.map(summary)
+}
+
+/** One revision with its params, when its design belongs to the shop. */
+export async function getRevision(db: Database, shopId: string, revisionId: string): Promise<(RevisionDetail & { designName: string; sizeLabel: string | null }) | null> {
+  const [row] = await db.select({ ...revisionColumns, params: revisions.params, designName: designs.name, sizeLabel: designs.sizeLabel })
+    .from(revisions)
+    .innerJoin(designs, eq(designs.id, revisions.designId))
+    .leftJoin(users, eq(users.id, revisions.authorId))
+    .where(and(eq(revisions.id, revisionId), eq(designs.shopId, shopId)))
+  if (!row) return null
+  return { ...summary(row), designId: row.designId, params: row.params, designName: row.designName, sizeLabel: row.sizeLabel }
+}
+
+export async function showInShop(db: Database, shopId: string, showId: string): Promise<boolean> {
+  const row = await db.query.shows.findFirst({ columns: { id: true }, where: and(eq(shows.id, showId), eq(shows.shopId, shopId)) })
+  return !!row
+}
+
+export interface NewDesign { name: string; sizeLabel?: string | null; showId?: string | null; params: unknown; note?: string }
+
+/** A design and its first revision, in one transaction. */
+export async function createDesign(db: Database, actor: Actor, input: NewDesign): Promise<{ id: string; revision: { id: string; number: number } }> {
+  return db.transaction(async (tx) => {
+    const [design] = await tx.insert(designs).values({
+      shopId: actor.shopId,
+      showId: input.showId ?? null,
+      name: input.name,
+      sizeLabel: input.sizeLabel ?? null,
+      latestRevision: 1,
+      createdBy: actor.userId,
+    }).returning({ id: designs.id })
+    if (!design) throw new Error('insert returned no design')
+    const [revision] = await tx.insert(revisions).values({
+      designId: design.id,
+      number: 1,
+      params: input.params,
+      note: input.note ?? 'First revision',
+      authorId: actor.userId,
+    }).returning({ id: revisions.id, number: revisions.number })
+    if (!revision) throw new Error('insert returned no revision')
+    await tx.insert(activity).values({ shopId: actor.shopId, userId: actor.userId, designId: design.id, action: 'design.created', detail: { name: input.name } })
+    return { id: design.id, revision }
+  })
+}
+
+export type SaveResult =
+  | { ok: true; revision: RevisionSummary }
+  | { ok: false; reason: 'not-found' }
+  | { ok: false; reason: 'conflict'; latest: RevisionSummary }
+
+/**
+ * Saves a new revision on top of `basedOn`. The guarded UPDATE takes the
+ * design's row lock, so of many racing saves on the same base exactly one
+ * matches `latest_revision = basedOn`; the others match nothing and store
+ * nothing. The unique (design, number) index backs this up.
+ */
+export async function saveRevision(
+  db: Database,
+  actor: Actor,
+  designId: string,
+  input: { params: unknown; note: string; basedOn: number },
+): Promise<SaveResult> {
+  return db.transaction(async (tx) => {
+    const [bumped] = await tx.update(designs)
+      .set({ latestRevision: sql`${designs.latestRevision} + 1`, updatedAt: new Date() })
+      .where(and(eq(designs.id, designId), eq(designs.shopId, actor.shopId), eq(designs.latestRevision, input.basedOn)))
+      .returning({ number: designs.latestRevision })
+    if (!bumped) {
+      const current = await tx.query.designs.findFirst({ columns: { latestRevision: true }, where: and(eq(designs.id, designId), eq(designs.shopId, actor.shopId)) })
+      if (!current) return { ok: false, reason: 'not-found' } as const
+      const [latest] = await tx.select(revisionColumns).from(revisions)
+        .leftJoin(users, eq(users.id, revisions.authorId))
+        .where(and(eq(revisions.designId, designId), eq(revisions.number, current.latestRevision)))
+      if (!latest) throw new Error(`design ${designId} has no revision ${current.latestRevision}`)
+      return { ok: false, reason: 'conflict', latest: summary(latest) } as const
+    }
+    const [row] = await tx.insert(revisions).values({
+      designId,
+      number: bumped.number,
+      params: input.params,
+      note: input.note,
+      authorId: actor.userId,
+    }).returning()
+    if (!row) throw new Error('insert returned no revision')
+    await tx.insert(activity).values({ shopId: actor.shopId, userId: actor.userId, designId, action: 'revision.saved', detail: { number: row.number, note: input.note } })
+    const author = await tx.query.users.findFirst({ columns: { name: true }, where: eq(users.id, actor.userId) })
+    return { ok: true, revision: summary({ ...row, authorName: author?.name ?? null }) } as const
+  })
+}
