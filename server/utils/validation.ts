@@ -1,4 +1,4 @@
-import type { H3Event } from 'h3'
+import { createError, getQuery, getRouterParam, readBody, type H3Event } from 'h3'
 import { z } from 'zod'
 
 /** Field path -> first message, the shape every form reads from a 422. */

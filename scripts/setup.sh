@@ -1,0 +1,54 @@
+# Sourced by start.sh and test.sh: the shared set-up steps.
+# Installs what is missing, starts the project's PostgreSQL, keeps a session secret.
+set -euo pipefail
+ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
+cd "$ROOT"
+mkdir -p .data
+
+ensure_modules() {
+  if [ ! -d node_modules ] || [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
+    echo "setup: installing node modules (npm ci)..."
+    npm ci --no-fund --no-audit
+  fi
+}
+
+# Set once, kept in the ignored data folder, so sessions survive restarts.
+ensure_session_secret() {
+  if [ -z "${NUXT_SESSION_PASSWORD:-}" ]; then
+    if [ ! -s .data/session-password ]; then
+      (umask 077; node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" > .data/session-password)
+    fi
+    NUXT_SESSION_PASSWORD=$(cat .data/session-password)
+    export NUXT_SESSION_PASSWORD
+  fi
+}
+
+# Prints "started" or "running" (see db.sh); uses DATABASE_URL when given.
+ensure_database() {
+  if [ -n "${DATABASE_URL:-}" ]; then
+    echo external
+  else
+    bash scripts/db.sh start
+  fi
+}
+
+ensure_chromium() {
+  if [ ! -x /usr/bin/chromium ]; then
+    [ "$(id -u)" = 0 ] || { echo "setup: Chromium is missing; as root: apt-get install chromium" >&2; exit 1; }
+    echo "setup: installing Debian's chromium for the browser tests (once)..."
+    DEBIAN_FRONTEND=noninteractive timeout 900 apt-get install -y -qq --no-install-recommends chromium >/dev/null 2>&1 \
+      || { apt-get update -qq && DEBIAN_FRONTEND=noninteractive timeout 900 apt-get install -y -qq --no-install-recommends chromium >/dev/null; }
+  fi
+  if ! command -v pdftoppm >/dev/null 2>&1 && [ "$(id -u)" = 0 ]; then
+    DEBIAN_FRONTEND=noninteractive timeout 600 apt-get install -y -qq --no-install-recommends poppler-utils >/dev/null 2>&1 || true
+  fi
+}
+
+# Builds when there is no build or any source is newer than it.
+ensure_build() {
+  local stamp=.output/nitro.json
+  if [ ! -f "$stamp" ] || [ -n "$(find pages components composables layouts middleware plugins stores server geometry shared assets public app.vue error.vue nuxt.config.ts tailwind.config.ts package-lock.json -newer "$stamp" -type f 2>/dev/null | head -n 1)" ]; then
+    echo "setup: building (nuxt build)..."
+    npx nuxt build > .data/build.log 2>&1 || { tail -n 40 .data/build.log >&2; echo "setup: the build failed (full log in .data/build.log)" >&2; exit 1; }
+  fi
+}

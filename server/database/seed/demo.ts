@@ -1,0 +1,96 @@
+// The demo: an invented community theatre's forest play. Names, sizes and
+// numbers are our own. Demo accounts only; never use these passwords for real.
+import { eq } from 'drizzle-orm'
+import type { Database } from '../../utils/db'
+import { activity, designs, memberships, revisions, shops, shows, users } from '../schema'
+import type { ShopRole } from '../../../shared/utils/permissions'
+
+export const DEMO_PASSWORD = 'rootplate-demo'
+
+export const demoPeople: { email: string; name: string; role: ShopRole }[] = [
+  { email: 'lead@rootplate.test', name: 'Morgan Reyes', role: 'lead' },
+  { email: 'designer@rootplate.test', name: 'Priya Okafor', role: 'designer' },
+  { email: 'builder@rootplate.test', name: 'Sam Lindqvist', role: 'builder' },
+  { email: 'viewer@rootplate.test', name: 'Jo Abernathy', role: 'viewer' },
+]
+
+const IN = 25.4
+
+/** Three trunks for the show, each with a short history of revisions. */
+export function demoDesigns(): { name: string; sizeLabel: string; revisions: { note: string; by: ShopRole; params: Record<string, unknown> }[] }[] {
+  const small = { tubeDiameter: 10 * IN, casterCount: 3, casterOffset: 6.5 * IN, rotation: 90, lobes: { count: 5, reach: 3 * IN, seed: 7 } }
+  const medium = { tubeDiameter: 16 * IN, casterCount: 4, casterOffset: 9.5 * IN, rotation: 45, lobes: { count: 6, reach: 5 * IN, seed: 21 } }
+  const large = { tubeDiameter: 24 * IN, casterCount: 5, casterOffset: 13.5 * IN, rotation: 18, lobes: { count: 7, reach: 7 * IN, seed: 42 } }
+  return [
+    {
+      name: 'Rowan sapling',
+      sizeLabel: 'Small · 10 in tube',
+      revisions: [
+        { note: 'First layout around the 10 in tube', by: 'designer', params: { ...small, lobes: { ...small.lobes, reach: 2.5 * IN } } },
+        { note: 'Longer roots downstage so it reads from the balcony', by: 'designer', params: small },
+      ],
+    },
+    {
+      name: 'Hollow oak',
+      sizeLabel: 'Medium · 16 in tube',
+      revisions: [
+        { note: 'First layout', by: 'designer', params: { ...medium, casterCount: 3, casterOffset: 10 * IN } },
+        { note: 'Four casters: the hollow carries a sandbag', by: 'lead', params: medium },
+        { note: 'Pulled one root out toward the bench', by: 'designer', params: { ...medium, lobes: { ...medium.lobes, overrides: [{ index: 2, reach: 7 * IN }] } } },
+      ],
+    },
+    {
+      name: 'Old king beech',
+      sizeLabel: 'Large · 24 in tube',
+      revisions: [
+        { note: 'Five casters for the weight of the canopy', by: 'designer', params: large },
+        { note: 'Clocked so the index hole faces the wings', by: 'designer', params: { ...large, rotation: 0 } },
+      ],
+    },
+  ]
+}
+
+export interface SeedHasher { make(plain: string): Promise<string> }
+
+/**
+ * Seeds the demo shop on an empty database; does nothing when any user
+ * exists. `normalise` turns each revision's params into what the server
+ * would store (the parsed params).
+ */
+export async function seedDemo(db: Database, hasher: SeedHasher, normalise: (p: Record<string, unknown>) => unknown = p => p): Promise<boolean> {
+  const existing = await db.query.users.findFirst({ columns: { id: true } })
+  if (existing) return false
+  const hash = await hasher.make(DEMO_PASSWORD)
+  await db.transaction(async (tx) => {
+    const [shop] = await tx.insert(shops).values({ name: 'Alder Street Players' }).returning()
+    if (!shop) throw new Error('no shop')
+    const people = await tx.insert(users).values(demoPeople.map(p => ({ email: p.email, name: p.name, passwordHash: hash }))).returning()
+    const byRole = new Map<ShopRole, string>()
+    for (const p of demoPeople) {
+      const u = people.find(x => x.email === p.email)
+      if (!u) throw new Error(`no user ${p.email}`)
+      byRole.set(p.role, u.id)
+    }
+    await tx.insert(memberships).values(demoPeople.map(p => ({ userId: byRole.get(p.role)!, shopId: shop.id, role: p.role })))
+    const [show] = await tx.insert(shows).values({ shopId: shop.id, name: 'Beneath the Rowan Wood', venue: 'Alder Street Hall', opensOn: '2027-03-12' }).returning()
+    if (!show) throw new Error('no show')
+    let minute = 0
+    const at = () => new Date(Date.UTC(2026, 10, 2, 15, 0) + (minute += 47) * 60_000)
+    for (const d of demoDesigns()) {
+      const [design] = await tx.insert(designs).values({
+        shopId: shop.id, showId: show.id, name: d.name, sizeLabel: d.sizeLabel,
+        latestRevision: d.revisions.length, createdBy: byRole.get('designer'),
+      }).returning()
+      if (!design) throw new Error('no design')
+      const first = at()
+      let last = first
+      for (const [i, r] of d.revisions.entries()) {
+        last = i === 0 ? first : at()
+        await tx.insert(revisions).values({ designId: design.id, number: i + 1, params: normalise(r.params), note: r.note, authorId: byRole.get(r.by), createdAt: last })
+      }
+      await tx.update(designs).set({ createdAt: first, updatedAt: last }).where(eq(designs.id, design.id))
+      await tx.insert(activity).values({ shopId: shop.id, userId: byRole.get('designer'), designId: design.id, action: 'design.created', detail: { name: d.name }, createdAt: last })
+    }
+  })
+  return true
+}
