@@ -1,0 +1,203 @@
+// The plate's parameters: one zod schema shared by forms, the editor store and
+// the server, so a value accepted anywhere is accepted everywhere. Lengths in
+// millimetres, angles in degrees counter-clockwise from +x.
+//
+// Bounds are real-world limits, not design advice: a value outside them is
+// not a plate anyone builds. Design problems inside the bounds (pockets too
+// close together, a small floor gap ...) are reported as findings by
+// buildPlate, never rejected here, so a designer can pass through a bad state
+// while dragging a handle. Only contradictions that make the geometry
+// meaningless are cross-field rules below.
+//
+// Sizes marked "from memory" are common shop practice, not a published table.
+
+import { z } from 'zod'
+
+/** Inches to millimetres, rounded to a micrometre so stored defaults read cleanly (3 in is 76.2, not 76.19999999999999). */
+function inch(n: number): number {
+  return Math.round(n * 25.4 * 1e6) / 1e6
+}
+
+/** Measure of one length field: millimetres within [min, max]. */
+function length(min: number, max: number, fallback: number) {
+  return z.number().finite().min(min).max(max).default(fallback)
+}
+
+const lobeOverrideSchema = z.object({
+  /** Which lobe (0-based, counter-clockwise from the clocking axis). */
+  index: z.number().int().min(0).max(23),
+  /** Degrees added to the lobe's evenly spaced angle, so rotating the plate carries it along. */
+  angle: z.number().finite().min(-180).max(180).optional(),
+  /** Replaces the lobe's reach (mm beyond the valley line); no irregularity is added on top. */
+  reach: z.number().finite().min(0).max(900).optional(),
+  /** Replaces the lobe's width (mm where it leaves the valley line). */
+  width: z.number().finite().min(10).max(1200).optional(),
+})
+
+const lobesSchema = z.object({
+  /** Number of root lobes; 0 gives a plain rounded plate (a column or a rock). */
+  count: z.number().int().min(0).max(24).default(6),
+  /** How far a lobe tip stands out beyond the valley line, mm. Up to 900 mm: past that a plate no longer fits any sheet. */
+  reach: length(0, 900, 110),
+  /** Width of a lobe where it leaves the valley line, mm (an arc length). */
+  width: length(10, 1200, 110),
+  /** 0 gives tapering, pointed-looking roots; 1 gives blunt, flat-ended ones. */
+  roundness: z.number().finite().min(0).max(1).default(0.5),
+  /** 0 is perfectly regular; 1 varies each lobe's reach by up to +-50 %, width by +-40 %, angle by a third of the spacing, and wobbles the valley line. */
+  irregularity: z.number().finite().min(0).max(1).default(0.35),
+  /** Seed of the irregularity: the same seed always gives the same plate. */
+  seed: z.number().int().min(0).max(0xffffffff).default(7),
+  /** Distance from the trunk circle to the outline between lobes, mm. At least 6 mm (1/4 in) so the tube always bears fully on wood. */
+  valley: length(6, 300, 25),
+  /** Degrees from the clocking axis to the first lobe. 0 puts lobe 0 over caster 0. */
+  phase: z.number().finite().min(-180).max(180).default(0),
+  /** Per-lobe changes, e.g. one root pulled out further by a handle. */
+  overrides: z.array(lobeOverrideSchema).max(24).default([]),
+})
+
+const casterSchema = z.object({
+  /** Scenery casters run 2-5 in wheels (from memory); 1-1/2 to 8 in accepted. */
+  wheelDiameter: length(inch(1.5), inch(8), inch(3)),
+  /** Horizontal distance from the kingpin to the axle, mm; a fraction of the wheel diameter. */
+  swivelLead: length(0, inch(6), inch(1.25)),
+  /** Floor to the top of the caster's top plate (the mounting face), mm. A 3 in caster is about 4 in tall (from memory). */
+  overallHeight: length(inch(1.5), inch(12), inch(4)),
+  /** Top plate side running along the radial line, mm. */
+  topPlateWidth: length(inch(1), inch(8), inch(2.5)),
+  /** Top plate side running square to the radial line, mm. */
+  topPlateLength: length(inch(1), inch(10), inch(3.625)),
+  /** Bolt centres along the top plate's length (square to the radial line), mm. 2-7/8 x 1-3/4 in is a common pattern (from memory). */
+  boltSpacingX: length(10, inch(9.5), inch(2.875)),
+  /** Bolt centres along the top plate's width (along the radial line), mm. */
+  boltSpacingY: length(10, inch(7.5), inch(1.75)),
+  /** Mounting bolt diameter, mm: #8 screw to 5/8 in bolt. */
+  boltDiameter: length(3, 16, inch(0.3125)),
+  /** Outside diameter of the swivel raceway (the ball track under the top plate), mm; bolts must land outside it. */
+  racewayDiameter: length(10, inch(8), inch(2)),
+})
+
+const accessSchema = z.object({
+  /** One opening between each pair of neighbouring casters. */
+  enabled: z.boolean().default(true),
+  /** Opening diameter, mm: from a 3/4 in hole saw up to a 12 in router-pattern hole. */
+  diameter: length(inch(0.75), inch(12), inch(2.25)),
+  /** Plate centre to opening centre, mm. */
+  offset: length(0, 1500, 100),
+  /** Round the diameter to the nearest common hole-saw size (3/4 to 6 in); larger openings stay as given (cut with a router and a pattern). */
+  snapToHoleSaw: z.boolean().default(true),
+})
+
+const baseSchema = z.object({
+  /** Measured outside diameter of the tube, mm. Form tubes run 6-48 in nominal (from memory); 4 in props to 49 in accepted. Default: a 12 in tube measuring 12-1/2 in outside. */
+  tubeDiameter: length(inch(4), inch(49), inch(12.5)),
+  /** Tube wall, mm. Form tubes are about 1/8-1/2 in (from memory); up to 1 in for built-up shells. */
+  tubeWall: length(1, 25.4, inch(0.25)),
+  /** Three casters always all touch an uneven floor; up to 8 round a big trunk. */
+  casterCount: z.number().int().min(3).max(8).default(3),
+  /** Plate centre to pocket centre (the caster's kingpin), mm. */
+  casterOffset: length(20, 1500, 170),
+  /** Through-hole the pan drops into and the caster swivels in, mm: 1-1/2 to 16 in. */
+  pocketDiameter: length(inch(1.5), inch(16), inch(6.5)),
+  /** Width of the stepped ring round the pocket for the pan's rim, mm. */
+  rabbetWidth: length(3, 50, inch(0.625)),
+  /** Depth of that ring below the top face, mm; about 3/8 in lets a pan rim sit flush (from memory). Must be less than the plate thickness. */
+  rabbetDepth: length(1, 30, inch(0.375)),
+  /** Height of the pan above its rim: from the rim's underside (on the rabbet floor) up to the underside of the pan's crown, where the caster's top plate bolts on. 0 is a flat plate in the rabbet. */
+  panDepth: length(0, 250, inch(2.5)),
+  caster: casterSchema.prefault({}),
+  /** Clocking: the angle of the first caster and of the axis through the index holes. */
+  rotation: z.number().finite().min(-360).max(360).default(90),
+  lobes: lobesSchema.prefault({}),
+  access: accessSchema.prefault({}),
+  /** Centre hole for a pivot pin or a pencil, mm: 1 mm to 2 in. */
+  centreHoleDiameter: length(1, inch(2), inch(0.25)),
+  /** Index holes (registration marks on the clocking axis), mm. */
+  indexHoleDiameter: length(1, inch(1), inch(0.125)),
+  /** Least wood between any hole and the edge or another hole, mm: 1/8 in to 4 in. Default 3/4 in (from memory). */
+  minWood: length(3, 100, inch(0.75)),
+  /** Glued plywood layers. */
+  layers: z.number().int().min(1).max(4).default(2),
+  /** One sheet's actual thickness, mm. Default: a "3/4 in" panel labelled 0.703 in (PS 1-19, performance category 23/32). */
+  sheetThickness: length(3, 40, inch(0.703)),
+  /** Least acceptable gap between the plate's underside and the floor, mm: clears floor joints, tape and cable covers. Default 1/4 in (from memory). */
+  minFloorGap: length(0, 100, inch(0.25)),
+})
+
+type BaseParams = z.output<typeof baseSchema>
+
+/** The least caster offset at which the pocket's rabbet clears the centre hole by the minimum wood. */
+export function minCasterOffset(p: Pick<BaseParams, 'pocketDiameter' | 'rabbetWidth' | 'centreHoleDiameter' | 'minWood'>): number {
+  return p.pocketDiameter / 2 + p.rabbetWidth + p.minWood + p.centreHoleDiameter / 2
+}
+
+function crossFieldRules(p: BaseParams, ctx: z.RefinementCtx): void {
+  const issue = (path: (string | number)[], message: string) =>
+    ctx.addIssue({ code: 'custom', path, message })
+  const fmt = (mm: number) => `${Math.round(mm * 10) / 10} mm`
+
+  if (p.tubeWall * 2 >= p.tubeDiameter) {
+    issue(['tubeWall'], `Tube wall ${fmt(p.tubeWall)} leaves no inside for a ${fmt(p.tubeDiameter)} tube.`)
+  }
+  const thickness = p.layers * p.sheetThickness
+  if (p.rabbetDepth >= thickness) {
+    issue(['rabbetDepth'], `Rabbet depth ${fmt(p.rabbetDepth)} must be less than the plate thickness ${fmt(thickness)}.`)
+  }
+  const least = minCasterOffset(p)
+  if (p.casterOffset < least) {
+    issue(['casterOffset'], `Caster offset ${fmt(p.casterOffset)} is too small for the pocket and its rabbet to clear the centre hole by the minimum wood; use at least ${fmt(least)}.`)
+  }
+  const c = p.caster
+  if (c.overallHeight <= c.wheelDiameter) {
+    issue(['caster', 'overallHeight'], `Caster height ${fmt(c.overallHeight)} must be more than the wheel diameter ${fmt(c.wheelDiameter)}.`)
+  }
+  if (c.swivelLead >= c.wheelDiameter) {
+    issue(['caster', 'swivelLead'], `Swivel lead ${fmt(c.swivelLead)} should be less than the wheel diameter ${fmt(c.wheelDiameter)}.`)
+  }
+  if (c.boltSpacingX + c.boltDiameter > c.topPlateLength) {
+    issue(['caster', 'boltSpacingX'], `Bolt spacing ${fmt(c.boltSpacingX)} does not fit on a top plate ${fmt(c.topPlateLength)} long.`)
+  }
+  if (c.boltSpacingY + c.boltDiameter > c.topPlateWidth) {
+    issue(['caster', 'boltSpacingY'], `Bolt spacing ${fmt(c.boltSpacingY)} does not fit on a top plate ${fmt(c.topPlateWidth)} wide.`)
+  }
+  if (c.racewayDiameter > Math.max(c.topPlateLength, c.topPlateWidth)) {
+    issue(['caster', 'racewayDiameter'], `Raceway ${fmt(c.racewayDiameter)} is larger than the top plate.`)
+  }
+  const seen = new Set<number>()
+  p.lobes.overrides.forEach((o, i) => {
+    if (o.index >= p.lobes.count) {
+      issue(['lobes', 'overrides', i, 'index'], `There is no lobe ${o.index + 1}: the plate has ${p.lobes.count} lobes.`)
+    }
+    if (seen.has(o.index)) {
+      issue(['lobes', 'overrides', i, 'index'], `Lobe ${o.index + 1} is changed twice.`)
+    }
+    seen.add(o.index)
+  })
+}
+
+export const plateParamsSchema = baseSchema.superRefine(crossFieldRules)
+
+export type PlateParams = z.output<typeof plateParamsSchema>
+/** What a form or a stored revision may hand in: every field optional. */
+export type PlateParamsInput = z.input<typeof plateParamsSchema>
+export type LobeOverride = z.output<typeof lobeOverrideSchema>
+
+export interface ParamIssue {
+  /** Dotted field path, e.g. `caster.boltSpacingX` or `lobes.overrides.2.index`; empty for the whole object. */
+  path: string
+  message: string
+}
+
+/** Field messages for forms and 422 answers; empty when the input is accepted. */
+export function paramIssues(input: unknown): ParamIssue[] {
+  const result = plateParamsSchema.safeParse(input)
+  if (result.success) return []
+  return result.error.issues.map((i) => ({
+    path: i.path.map(String).join('.'),
+    message: i.message,
+  }))
+}
+
+/** The default plate, parsed. */
+export function defaultParams(): PlateParams {
+  return plateParamsSchema.parse({})
+}
