@@ -1,0 +1,183 @@
+// The cut file's content, once, for both writers: DXF and SVG show the same
+// entities on the same layers. One layer per machining operation, so a CNC
+// shop can assign a tool and a depth to each without sorting anything.
+
+import type { Plate, Point } from '../types'
+import { assertExportUnits, fromMm, type ExportUnits } from './units'
+import { counterClockwise, flattenPath, simplifyClosed } from './polyline'
+
+/** The outline polygon's guaranteed chord error (the geometry contract), mm. */
+export const OUTLINE_CHORD_ERROR = 0.1
+
+export const LAYER_OUTSIDE = 'RP-OUTSIDE-CUT'
+export const LAYER_INSIDE = 'RP-INSIDE-CUT'
+export const LAYER_RABBET_PREFIX = 'RP-RABBET-'
+export const LAYER_DRILL = 'RP-DRILL'
+export const LAYER_REFERENCE = 'RP-REFERENCE'
+
+export interface CutOptions {
+  units: ExportUnits
+  /** Trunk circle, clocking axis and caster plate outlines on a layer never cut. Default true. */
+  includeReference?: boolean
+  /** Flip x, to cut the plate from its back face. Default false. */
+  mirror?: boolean
+  /**
+   * Largest distance between the written outline and the true curve, mm,
+   * whatever the output units. Default 0.1 (the outline polygon as built);
+   * coarser values thin the polygon, finer ones flatten the cubic outline path.
+   */
+  chordTolerance?: number
+}
+
+export type LayerRole = 'outside' | 'inside' | 'rabbet' | 'drill' | 'reference'
+
+export type CutEntity =
+  | { type: 'polyline'; points: Point[]; closed: boolean }
+  | { type: 'circle'; x: number; y: number; r: number }
+  | { type: 'line'; from: Point; to: Point }
+
+export interface CutLayer {
+  name: string
+  role: LayerRole
+  /** False for reference marks: nothing on this layer is machined. */
+  cut: boolean
+  /** Rabbet depth in output units, for rabbet layers. */
+  depth?: number
+  entities: CutEntity[]
+}
+
+export interface CutDrawing {
+  units: ExportUnits
+  layers: CutLayer[]
+  /** Extent of every entity, output units. */
+  bounds: { minX: number; minY: number; maxX: number; maxY: number }
+}
+
+/** `0.375IN`, `9.525MM`: plain characters every DXF reader accepts in a layer name. */
+function depthTag(depth: number, units: ExportUnits): string {
+  return `${Number(depth.toFixed(3))}${units.toUpperCase()}`
+}
+
+export function rabbetLayerName(depthMm: number, units: ExportUnits): string {
+  return `${LAYER_RABBET_PREFIX}${depthTag(fromMm(depthMm, units), units)}`
+}
+
+export function normaliseCutOptions(options: CutOptions): Required<CutOptions> {
+  if (options === null || typeof options !== 'object') throw new TypeError('Cut file options are required.')
+  assertExportUnits(options.units)
+  const chordTolerance = options.chordTolerance ?? OUTLINE_CHORD_ERROR
+  if (!Number.isFinite(chordTolerance) || chordTolerance <= 0) {
+    throw new RangeError(`chordTolerance must be a positive length in mm, got ${chordTolerance}.`)
+  }
+  return {
+    units: options.units,
+    includeReference: options.includeReference ?? true,
+    mirror: options.mirror ?? false,
+    chordTolerance,
+  }
+}
+
+/** The outside profile in mm, within `tolerance` of the true outline. */
+export function outlineWithin(plate: Pick<Plate, 'outline' | 'outlinePath'>, tolerance: number): Point[] {
+  if (tolerance < OUTLINE_CHORD_ERROR) {
+    const flat = plate.outlinePath ? flattenPath(plate.outlinePath, tolerance) : null
+    if (!flat) {
+      throw new RangeError(
+        `A chord tolerance under ${OUTLINE_CHORD_ERROR} mm needs the outline's curve path, which could not be read.`,
+      )
+    }
+    return counterClockwise(flat)
+  }
+  // The polygon is already within 0.1 mm of the curve; thinning it by the rest keeps the total in bounds.
+  return counterClockwise(simplifyClosed(plate.outline, tolerance - OUTLINE_CHORD_ERROR))
+}
+
+function entityKey(e: CutEntity): string {
+  const r = (v: number) => v.toFixed(6)
+  switch (e.type) {
+    case 'circle':
+      return `c ${r(e.x)} ${r(e.y)} ${r(e.r)}`
+    case 'line': {
+      const [a, b] = [e.from, e.to].map((p) => `${r(p[0])} ${r(p[1])}`).sort()
+      return `l ${a} ${b}`
+    }
+    case 'polyline':
+      return `p ${e.closed} ${e.points.map((p) => `${r(p[0])} ${r(p[1])}`).join(' ')}`
+  }
+}
+
+/** Build the layered cut drawing in output units. */
+export function buildCutDrawing(plate: Plate, options: CutOptions): CutDrawing {
+  const o = normaliseCutOptions(options)
+  const k = o.units === 'in' ? 1 / 25.4 : 1
+  const sx = o.mirror ? -1 : 1
+  const pt = (x: number, y: number): Point => [sx * x * k, y * k]
+  const closedRing = (points: Point[]): Point[] => {
+    const mapped = points.map((p) => pt(p[0], p[1]))
+    // Mirroring reverses the winding; turn it back so every outline stays counter-clockwise.
+    return o.mirror ? mapped.reverse() : mapped
+  }
+  const circle = (x: number, y: number, diameter: number): CutEntity => {
+    const [cx, cy] = pt(x, y)
+    return { type: 'circle', x: cx, y: cy, r: (diameter / 2) * k }
+  }
+
+  const layers = new Map<string, CutLayer>()
+  const seen = new Set<string>()
+  const add = (name: string, role: LayerRole, entity: CutEntity, depth?: number): void => {
+    let layer = layers.get(name)
+    if (!layer) {
+      layer = { name, role, cut: role !== 'reference', entities: [] }
+      if (depth !== undefined) layer.depth = depth
+      layers.set(name, layer)
+    }
+    const key = `${name} ${entityKey(entity)}`
+    if (seen.has(key)) return
+    seen.add(key)
+    layer.entities.push(entity)
+  }
+
+  add(LAYER_OUTSIDE, 'outside', { type: 'polyline', points: closedRing(outlineWithin(plate, o.chordTolerance)), closed: true })
+  for (const h of plate.holes) {
+    if (h.kind === 'index') continue
+    add(LAYER_INSIDE, 'inside', circle(h.x, h.y, h.diameter))
+  }
+  const rabbets = [...plate.rabbets].sort((a, b) => a.depth - b.depth)
+  for (const r of rabbets) {
+    add(rabbetLayerName(r.depth, o.units), 'rabbet', circle(r.x, r.y, r.diameter), Number(fromMm(r.depth, o.units).toFixed(3)))
+  }
+  for (const h of plate.holes) {
+    if (h.kind === 'index') add(LAYER_DRILL, 'drill', circle(h.x, h.y, h.diameter))
+  }
+  for (const m of plate.casterMounts) {
+    for (const b of m.bolts) add(LAYER_DRILL, 'drill', circle(b.x, b.y, b.diameter))
+  }
+  if (o.includeReference) {
+    add(LAYER_REFERENCE, 'reference', circle(plate.trunk.x, plate.trunk.y, plate.trunk.diameter))
+    add(LAYER_REFERENCE, 'reference', { type: 'line', from: pt(...plate.axis.from), to: pt(...plate.axis.to) })
+    for (const m of plate.casterMounts) {
+      add(LAYER_REFERENCE, 'reference', { type: 'polyline', points: closedRing(m.corners), closed: true })
+    }
+  }
+
+  let minX = Infinity
+  let minY = Infinity
+  let maxX = -Infinity
+  let maxY = -Infinity
+  const grow = (x: number, y: number, r = 0) => {
+    minX = Math.min(minX, x - r)
+    maxX = Math.max(maxX, x + r)
+    minY = Math.min(minY, y - r)
+    maxY = Math.max(maxY, y + r)
+  }
+  for (const layer of layers.values()) {
+    for (const e of layer.entities) {
+      if (e.type === 'circle') grow(e.x, e.y, e.r)
+      else if (e.type === 'line') {
+        grow(...e.from)
+        grow(...e.to)
+      } else for (const p of e.points) grow(p[0], p[1])
+    }
+  }
+  return { units: o.units, layers: [...layers.values()], bounds: { minX, minY, maxX, maxY } }
+}

@@ -1,0 +1,68 @@
+// Exports: tiled full-size PDFs, cut files and their file names. Only the
+// public surface is listed, so nothing here collides with the core's names.
+export { PT_PER_MM, PT_PER_INCH, EXPORT_UNITS, formatShopLength, type ExportUnits } from './units'
+export {
+  PAPERS,
+  PAPER_NAMES,
+  MAX_PAGE_LENGTH,
+  DEFAULT_MARGIN,
+  DEFAULT_OVERLAP,
+  tileContent,
+  tilePlate,
+  sheetTransform,
+  plateToPage,
+  pageSizePt,
+  registrationPoints,
+  polygonTouchesRect,
+  sheetLabel,
+  type PaperName,
+  type PaperSpec,
+  type Orientation,
+  type Rect,
+  type Sheet,
+  type SheetNeighbours,
+  type Tiling,
+  type TilingOptions,
+  type PlateTilingOptions,
+  type TileContent,
+  type SheetTransform,
+} from './tiling'
+export { offsetPolygon } from './polyline'
+export {
+  buildCutDrawing,
+  rabbetLayerName,
+  LAYER_OUTSIDE,
+  LAYER_INSIDE,
+  LAYER_RABBET_PREFIX,
+  LAYER_DRILL,
+  LAYER_REFERENCE,
+  OUTLINE_CHORD_ERROR,
+  type CutOptions,
+  type CutDrawing,
+  type CutLayer,
+  type CutEntity,
+  type LayerRole,
+} from './cut-layers'
+export { renderCutDxf, type DxfOptions } from './dxf'
+export { renderCutSvg, type SvgOptions } from './svg'
+export { exportFileName, slugify, type ExportFileMeta } from './filename'
+export { TEMPLATE_FONT_FILE, resolveFontBytes, type FontBytes } from './fonts'
+export type { TemplateMeta, LegendEntry, TiledDrawing } from './tiled-pdf'
+export {
+  renderTemplatePdf,
+  planTemplate,
+  bushingOffset,
+  TEMPLATE_STYLES,
+  type TemplateOptions,
+  type BushingOptions,
+  type PlateTemplate,
+} from './template-pdf'
+export {
+  renderTubeWrapPdf,
+  planTubeWrap,
+  tubeWrapLayout,
+  type TubeWrapOptions,
+  type TubeWrapLayout,
+  type WrapNotch,
+  type TubeWrap,
+} from './tube-wrap-pdf'

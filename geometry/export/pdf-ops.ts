@@ -1,0 +1,230 @@
+// A small writer for PDF content-stream operators. The templates draw
+// thousands of outline segments on many pages; writing the operators as text
+// (numbers rounded to what a printer can show) keeps the file small and the
+// writer fast, where one pdf-lib operator object per segment would not.
+
+import type { PDFFont } from 'pdf-lib'
+import type { Point } from '../types'
+
+export type Rgb = readonly [number, number, number]
+
+function hex(colour: string): Rgb {
+  const v = Number.parseInt(colour.slice(1), 16)
+  return [((v >> 16) & 255) / 255, ((v >> 8) & 255) / 255, (v & 255) / 255]
+}
+
+/** Rootplate's template palette (our own choice). */
+export const COLOURS = {
+  cut: hex('#0b5d3b'),
+  hole: hex('#0b5d3b'),
+  rabbet: hex('#b07219'),
+  drill: hex('#a8322d'),
+  reference: hex('#8a817c'),
+  mount: hex('#44597a'),
+  notch: hex('#c2571a'),
+  router: hex('#3f8f63'),
+  ink: hex('#262626'),
+  muted: hex('#6f6a66'),
+  guide: hex('#4d4d4d'),
+  tint: hex('#eeece8'),
+  paper: hex('#ffffff'),
+  accent: hex('#0b5d3b'),
+  warn: hex('#9b2c1f'),
+  warnTint: hex('#fbeee9'),
+} as const
+
+export interface LineStyle {
+  colour: Rgb
+  /** Line width in the current user unit. */
+  width: number
+  /** Dash lengths in the current user unit; empty for solid. */
+  dash?: number[]
+}
+
+/** Three decimals: a thousandth of a millimetre or of a point, far below what prints. */
+export function num(v: number): string {
+  const r = Math.round(v * 1000) / 1000
+  return Object.is(r, -0) ? '0' : String(r)
+}
+
+const KAPPA = (4 / 3) * (Math.SQRT2 - 1)
+
+export type TextAlign = 'left' | 'center' | 'right'
+
+export interface TextOptions {
+  align?: TextAlign
+  /** Degrees counter-clockwise. */
+  angle?: number
+  colour?: Rgb
+}
+
+export class Ops {
+  private readonly parts: string[] = []
+
+  constructor(
+    private readonly font: PDFFont | null = null,
+    private readonly fontName = 'F1',
+  ) {}
+
+  raw(op: string): this {
+    this.parts.push(op)
+    return this
+  }
+
+  save(): this {
+    return this.raw('q')
+  }
+
+  restore(): this {
+    return this.raw('Q')
+  }
+
+  transform(a: number, b: number, c: number, d: number, e: number, f: number): this {
+    return this.raw(`${num(a)} ${num(b)} ${num(c)} ${num(d)} ${num(e)} ${num(f)} cm`)
+  }
+
+  /** Exact six-figure matrix, so a reader can recover the scale precisely. */
+  transformExact(a: number, b: number, c: number, d: number, e: number, f: number): this {
+    const x = (v: number) => String(Number(v.toFixed(6)))
+    return this.raw(`${x(a)} ${x(b)} ${x(c)} ${x(d)} ${x(e)} ${x(f)} cm`)
+  }
+
+  style(s: LineStyle): this {
+    const [r, g, b] = s.colour
+    const dash = s.dash && s.dash.length > 0 ? `[${s.dash.map(num).join(' ')}] 0 d` : '[] 0 d'
+    return this.raw(`${num(r)} ${num(g)} ${num(b)} RG ${num(s.width)} w ${dash}`)
+  }
+
+  fillColour(c: Rgb): this {
+    return this.raw(`${num(c[0])} ${num(c[1])} ${num(c[2])} rg`)
+  }
+
+  moveTo(x: number, y: number): this {
+    return this.raw(`${num(x)} ${num(y)} m`)
+  }
+
+  lineTo(x: number, y: number): this {
+    return this.raw(`${num(x)} ${num(y)} l`)
+  }
+
+  line(x0: number, y0: number, x1: number, y1: number): this {
+    return this.raw(`${num(x0)} ${num(y0)} m ${num(x1)} ${num(y1)} l`)
+  }
+
+  rect(x: number, y: number, w: number, h: number): this {
+    return this.raw(`${num(x)} ${num(y)} ${num(w)} ${num(h)} re`)
+  }
+
+  polygon(points: Point[], closed = true): this {
+    const first = points[0]
+    if (!first) return this
+    const out = [`${num(first[0])} ${num(first[1])} m`]
+    for (let i = 1; i < points.length; i++) {
+      const p = points[i]!
+      out.push(`${num(p[0])} ${num(p[1])} l`)
+    }
+    if (closed) out.push('h')
+    return this.raw(out.join('\n'))
+  }
+
+  circle(x: number, y: number, r: number): this {
+    const k = KAPPA * r
+    return this.raw(
+      [
+        `${num(x + r)} ${num(y)} m`,
+        `${num(x + r)} ${num(y + k)} ${num(x + k)} ${num(y + r)} ${num(x)} ${num(y + r)} c`,
+        `${num(x - k)} ${num(y + r)} ${num(x - r)} ${num(y + k)} ${num(x - r)} ${num(y)} c`,
+        `${num(x - r)} ${num(y - k)} ${num(x - k)} ${num(y - r)} ${num(x)} ${num(y - r)} c`,
+        `${num(x + k)} ${num(y - r)} ${num(x + r)} ${num(y - k)} ${num(x + r)} ${num(y)} c h`,
+      ].join('\n'),
+    )
+  }
+
+  /** Arc of a circle as cubic pieces of at most 90 degrees, from a0 to a1 (degrees, counter-clockwise). */
+  arc(x: number, y: number, r: number, a0: number, a1: number): this {
+    const pieces = Math.max(1, Math.ceil(Math.abs(a1 - a0) / 90))
+    const step = ((a1 - a0) / pieces) * (Math.PI / 180)
+    let t = a0 * (Math.PI / 180)
+    const k = (4 / 3) * Math.tan(step / 4) * r
+    const out = [`${num(x + r * Math.cos(t))} ${num(y + r * Math.sin(t))} m`]
+    for (let i = 0; i < pieces; i++) {
+      const t1 = t + step
+      const [c0, s0, c1, s1] = [Math.cos(t), Math.sin(t), Math.cos(t1), Math.sin(t1)]
+      out.push(
+        `${num(x + r * c0 - k * s0)} ${num(y + r * s0 + k * c0)} ${num(x + r * c1 + k * s1)} ${num(y + r * s1 - k * c1)} ${num(x + r * c1)} ${num(y + r * s1)} c`,
+      )
+      t = t1
+    }
+    return this.raw(out.join('\n'))
+  }
+
+  /** A centre cross of arm length `arm`. */
+  cross(x: number, y: number, arm: number): this {
+    return this.line(x - arm, y, x + arm, y).line(x, y - arm, x, y + arm)
+  }
+
+  stroke(): this {
+    return this.raw('S')
+  }
+
+  fill(): this {
+    return this.raw('f')
+  }
+
+  fillStroke(): this {
+    return this.raw('B')
+  }
+
+  /** Clip to the current path. */
+  clip(): this {
+    return this.raw('W n')
+  }
+
+  drawObject(name: string): this {
+    return this.raw(`/${name} Do`)
+  }
+
+  textWidth(text: string, size: number): number {
+    if (!this.font) throw new Error('No font given to this content stream.')
+    return this.font.widthOfTextAtSize(text, size)
+  }
+
+  text(text: string, x: number, y: number, size: number, options: TextOptions = {}): this {
+    if (!this.font) throw new Error('No font given to this content stream.')
+    const safe = sanitise(this.font, text)
+    if (safe === '') return this
+    const w = this.font.widthOfTextAtSize(safe, size)
+    const shift = options.align === 'center' ? w / 2 : options.align === 'right' ? w : 0
+    const a = ((options.angle ?? 0) * Math.PI) / 180
+    const cos = Math.cos(a)
+    const sin = Math.sin(a)
+    const tx = x - shift * cos
+    const ty = y - shift * sin
+    const c = options.colour ?? COLOURS.ink
+    const encoded = this.font.encodeText(safe).toString()
+    return this.raw(
+      `BT ${num(c[0])} ${num(c[1])} ${num(c[2])} rg /${this.fontName} ${num(size)} Tf ${num(cos)} ${num(sin)} ${num(-sin)} ${num(cos)} ${num(tx)} ${num(ty)} Tm ${encoded} Tj ET`,
+    )
+  }
+
+  toString(): string {
+    return this.parts.join('\n')
+  }
+}
+
+const charsetCache = new WeakMap<PDFFont, Set<number>>()
+
+/** Characters the font lacks (a design named in another script) become '?', never a missing glyph box or a crash. */
+export function sanitise(font: PDFFont, text: string): string {
+  let set = charsetCache.get(font)
+  if (!set) {
+    set = new Set(font.getCharacterSet())
+    charsetCache.set(font, set)
+  }
+  let out = ''
+  for (const ch of text.replace(/[\r\n\t]+/g, ' ')) {
+    const cp = ch.codePointAt(0) ?? 63
+    out += set.has(cp) ? ch : '?'
+  }
+  return out
+}
