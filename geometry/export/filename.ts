@@ -8,8 +8,13 @@ export interface ExportFileMeta {
   revision: number
 }
 
+/** Letters that do not decompose into a base letter and an accent. */
+const SPELLED: Record<string, string> = { ß: 'ss', æ: 'ae', œ: 'oe', ø: 'o', đ: 'd', ł: 'l', þ: 'th' }
+
 export function slugify(text: string): string {
   return text
+    .toLowerCase()
+    .replace(/[ßæœøđłþ]/g, (c) => SPELLED[c] ?? '')
     .normalize('NFKD')
     .replace(/[\u0300-\u036f]/g, '')
     .toLowerCase()
