@@ -22,6 +22,10 @@ export default defineNuxtConfig({
       meta: [{ name: 'viewport', content: 'width=device-width, initial-scale=1' }],
     },
   },
+  runtimeConfig: {
+    // Set NUXT_TRUST_PROXY=1 when a reverse proxy in front sets X-Forwarded-For.
+    trustProxy: false as boolean | string,
+  },
   nitro: {
     externals: { external: ['paper'] },
   },

@@ -10,7 +10,9 @@ const hasher = { make: hashPassword, verify: verifyPassword }
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await readBodyWith(event, loginSchema)
-  const address = getRequestIP(event, { xForwardedFor: true }) ?? 'unknown'
+  // X-Forwarded-For is believed only behind a proxy the operator names (NUXT_TRUST_PROXY=1).
+  const trustProxy = ['1', 'true'].includes(String(useRuntimeConfig(event).trustProxy))
+  const address = getRequestIP(event, { xForwardedFor: trustProxy }) ?? 'unknown'
   const result = await signIn(useDb(), hasher, { email, password, address })
   if (!result.ok) {
     if (result.reason === 'limited') {

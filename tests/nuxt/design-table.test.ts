@@ -1,0 +1,49 @@
+import { describe, expect, it } from 'vitest'
+import { mountSuspended } from '@nuxt/test-utils/runtime'
+import DesignTable from '~/components/shop/DesignTable.vue'
+import RevisionList from '~/components/design/RevisionList.vue'
+
+describe('shop home table', () => {
+  it('shows name, size label, latest revision, author and a link per design', async () => {
+    const wrapper = await mountSuspended(DesignTable, {
+      props: {
+        designs: [
+          { id: '11111111-1111-4111-8111-111111111111', name: 'Birch', sizeLabel: 'S', show: null, latestRevision: 4, updatedAt: '2026-11-02T15:00:00.000Z', author: 'Ana' },
+          { id: '22222222-2222-4222-8222-222222222222', name: 'Elm', sizeLabel: null, show: null, latestRevision: 1, updatedAt: '2026-11-03T15:00:00.000Z', author: null },
+        ],
+      },
+    })
+    const rows = wrapper.findAll('tbody tr')
+    expect(rows).toHaveLength(2)
+    expect(rows[0]!.text()).toContain('Birch')
+    expect(rows[0]!.text()).toContain('r4')
+    expect(rows[0]!.text()).toContain('Ana')
+    expect(rows[1]!.text()).toContain('—')
+    expect(rows[0]!.find('a').attributes('href')).toBe('/designs/11111111-1111-4111-8111-111111111111')
+  })
+})
+
+describe('revision history', () => {
+  it('marks the latest revision and shows notes and authors', async () => {
+    const wrapper = await mountSuspended(RevisionList, {
+      props: {
+        current: 2,
+        loading: false,
+        revisions: [
+          { id: 'b', number: 2, note: 'Longer roots', createdAt: '2026-11-02T16:00:00.000Z', author: { id: 'u', name: 'Ana' } },
+          { id: 'a', number: 1, note: '', createdAt: '2026-11-02T15:00:00.000Z', author: { id: null, name: null } },
+        ],
+      },
+    })
+    const items = wrapper.findAll('li')
+    expect(items[0]!.text()).toContain('latest')
+    expect(items[1]!.text()).not.toContain('latest')
+    expect(items[1]!.text()).toContain('No note')
+    expect(items[1]!.text()).toContain('Former member')
+  })
+
+  it('says so when there are no revisions', async () => {
+    const wrapper = await mountSuspended(RevisionList, { props: { current: 0, loading: false, revisions: [] } })
+    expect(wrapper.text()).toContain('No revisions yet')
+  })
+})
