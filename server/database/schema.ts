@@ -18,6 +18,8 @@ export const users = pgTable('users', {
   email: text('email').notNull(),
   name: text('name').notNull(),
   passwordHash: text('password_hash').notNull(),
+  // Display units, last export settings: validated by shared/utils/preferences.ts.
+  preferences: jsonb('preferences').notNull().default({}),
   ...timestamps,
 }, t => [
   uniqueIndex('users_email_key').on(sql`lower(${t.email})`),
