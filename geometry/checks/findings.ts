@@ -1,0 +1,197 @@
+// Problems with a plate the schema accepted. A plate is never refused here:
+// the designer sees each problem where it is and decides. Errors are things a
+// shop cannot build or must not roll; warnings are things it should look at.
+
+import type { PlateParams } from '../params'
+import type { CasterMount, Finding, Hole, Point, Rabbet } from '../types'
+import { edgeGap, lensArea, centreDistance, type Circle } from '../math/circles'
+import { fitsRectangle, probeRing } from '../math/polygon'
+import type { FloorStack } from './floor'
+
+/** A 4x8 ft panel, 48 x 96 in nominal (US Product Standard PS 1-19). */
+export const SHEET_MM = { width: 1219.2, length: 2438.4 } as const
+
+export interface FindingsInput {
+  params: PlateParams
+  outline: readonly Point[]
+  pockets: readonly Hole[]
+  rabbets: readonly Rabbet[]
+  access: readonly Hole[]
+  centre: Hole
+  index: readonly Hole[]
+  casterMounts: readonly CasterMount[]
+  stack: FloorStack
+  /** Radius of the smallest circle round the outline; a plate inside a 48 in circle fits a sheet without turning it. */
+  enclosingRadius: number
+}
+
+interface Keepout {
+  hole: Hole
+  /** The circle wood must keep clear of: a pocket's rabbet ring, otherwise the hole itself. */
+  circle: Circle
+  label: string
+  field: string
+}
+
+const mm = (v: number) => `${Math.round(v * 10) / 10} mm`
+
+function labelFor(hole: Hole): string {
+  const n = Number(hole.id.split('-')[1] ?? 0) + 1
+  switch (hole.kind) {
+    case 'pocket': return `Pocket ${n}`
+    case 'access': return `Access opening ${n}`
+    case 'index': return `Index hole ${n}`
+    case 'centre': return 'The centre hole'
+  }
+}
+
+const FIELD: Record<Hole['kind'], string> = {
+  pocket: 'casterOffset',
+  access: 'access.offset',
+  centre: 'centreHoleDiameter',
+  index: 'indexHoleDiameter',
+}
+
+function keepouts(input: FindingsInput): Keepout[] {
+  const out: Keepout[] = []
+  input.pockets.forEach((hole, k) => {
+    const rb = input.rabbets[k]
+    const radius = rb ? rb.diameter / 2 : hole.diameter / 2
+    out.push({ hole, circle: { x: hole.x, y: hole.y, radius }, label: labelFor(hole), field: FIELD.pocket })
+  })
+  for (const hole of [...input.access, input.centre, ...input.index]) {
+    out.push({ hole, circle: { x: hole.x, y: hole.y, radius: hole.diameter / 2 }, label: labelFor(hole), field: FIELD[hole.kind] })
+  }
+  return out
+}
+
+function edgeFindings(input: FindingsInput, items: readonly Keepout[]): Finding[] {
+  const found: Finding[] = []
+  const minWood = input.params.minWood
+  const probes = probeRing(input.outline, items.map((i) => i.circle))
+  items.forEach(({ hole, circle, label, field }, k) => {
+    const probe = probes[k]!
+    const wood = probe.inside ? probe.distance - circle.radius : -Infinity
+    const at = { x: circle.x, y: circle.y, radius: circle.radius }
+    if (wood < 0) {
+      found.push({ code: 'hole-cuts-edge', severity: 'error', message: `${label} cuts through the plate's edge.`, at, holeIds: [hole.id], field })
+    } else if (wood < minWood) {
+      found.push({ code: 'edge-too-close', severity: 'warning', message: `${label} has ${mm(wood)} of wood to the edge, less than the minimum ${mm(minWood)}.`, at, holeIds: [hole.id], field })
+    }
+  })
+  return found
+}
+
+function spacingFindings(input: FindingsInput, items: readonly Keepout[]): Finding[] {
+  const found: Finding[] = []
+  const minWood = input.params.minWood
+  for (let i = 0; i < items.length; i++) {
+    for (let j = i + 1; j < items.length; j++) {
+      const a = items[i]!
+      const b = items[j]!
+      const gap = edgeGap(a.circle, b.circle)
+      const holeIds = [a.hole.id, b.hole.id]
+      const field = a.hole.kind === 'pocket' && b.hole.kind !== 'pocket' ? b.field : a.field
+      const d = centreDistance(a.circle, b.circle)
+      const at = { x: (a.circle.x + b.circle.x) / 2, y: (a.circle.y + b.circle.y) / 2 }
+      if (gap < 0) {
+        const shared = lensArea(a.circle.radius, b.circle.radius, d)
+        found.push({
+          code: 'holes-overlap',
+          severity: 'error',
+          message: `${a.label} and ${b.label.toLowerCase()} run into each other (${Math.round(shared)} mm2 shared).`,
+          at,
+          holeIds,
+          field,
+        })
+      } else if (gap < minWood && a.hole.kind !== 'index' && b.hole.kind !== 'index') {
+        // Index holes are small drilled marks: only their running into another hole matters.
+        found.push({
+          code: 'holes-too-close',
+          severity: 'warning',
+          message: `${a.label} and ${b.label.toLowerCase()} have ${mm(gap)} of wood between them, less than the minimum ${mm(minWood)}.`,
+          at,
+          holeIds,
+          field,
+        })
+      }
+    }
+  }
+  return found
+}
+
+/** The tube stands on the ring between its inside and outside: an opening there leaves it unsupported. */
+function trunkWallFindings(input: FindingsInput): Finding[] {
+  const found: Finding[] = []
+  const ro = input.params.tubeDiameter / 2
+  const ri = ro - input.params.tubeWall
+  for (const hole of [...input.access, input.centre]) {
+    const d = Math.hypot(hole.x, hole.y)
+    const r = hole.diameter / 2
+    const at = { x: hole.x, y: hole.y, radius: r }
+    const label = labelFor(hole)
+    if (d - r >= ro) {
+      found.push({ code: 'access-outside-trunk', severity: 'warning', message: `${label} lies outside the trunk, where it shows and cannot be reached from inside.`, at, holeIds: [hole.id], field: FIELD[hole.kind] })
+    } else if (d + r > ri) {
+      found.push({ code: 'hole-crosses-trunk-wall', severity: 'error', message: `${label} reaches under the tube wall, which would stand on nothing there.`, at, holeIds: [hole.id], field: FIELD[hole.kind] })
+    }
+  }
+  return found
+}
+
+function casterFindings(input: FindingsInput): Finding[] {
+  const found: Finding[] = []
+  const { params, stack } = input
+  const c = params.caster
+  const pocketRadius = params.pocketDiameter / 2
+  const diagonal = Math.hypot(c.topPlateWidth, c.topPlateLength)
+  const first = input.pockets[0]
+  const at = first ? { x: first.x, y: first.y, radius: pocketRadius } : undefined
+  const ids = input.pockets.map((p) => p.id)
+  if (diagonal > params.pocketDiameter) {
+    found.push({ code: 'caster-too-big-for-pocket', severity: 'error', message: `The caster's top plate (${mm(diagonal)} corner to corner) cannot pass through a ${mm(params.pocketDiameter)} pocket to reach the pan.`, at, holeIds: ids, field: 'pocketDiameter' })
+  }
+  if (stack.wheelReach > pocketRadius) {
+    found.push({ code: 'wheel-swing', severity: 'error', message: `The swivelling wheel reaches ${mm(stack.wheelReach)} from its kingpin inside the pocket, past the pocket's edge at ${mm(pocketRadius)}.`, at, holeIds: ids, field: 'pocketDiameter' })
+  }
+  const raceway = c.racewayDiameter / 2
+  for (const mount of input.casterMounts) {
+    const pocket = input.pockets.find((p) => p.id === mount.pocketId)
+    if (!pocket) continue
+    const inside = mount.bolts.filter((b) => Math.hypot(b.x - pocket.x, b.y - pocket.y) - b.diameter / 2 < raceway)
+    if (inside.length > 0) {
+      const b = inside[0]!
+      found.push({ code: 'bolt-in-raceway', severity: 'error', message: `${labelFor(pocket)}: ${inside.length} mounting bolt(s) fall inside the swivel raceway (${mm(c.racewayDiameter)} across).`, at: { x: b.x, y: b.y, radius: b.diameter / 2 }, holeIds: [pocket.id], field: 'caster.racewayDiameter' })
+    }
+  }
+  return found
+}
+
+function floorFindings(input: FindingsInput): Finding[] {
+  const { params, stack } = input
+  if (stack.floorGap < 0) {
+    return [{ code: 'floor-gap-negative', severity: 'error', message: `The plate would sit ${mm(-stack.floorGap)} below the wheels' reach: it rests on the floor and the casters carry nothing. Use a shallower pan or taller casters.`, field: 'panDepth' }]
+  }
+  if (stack.floorGap < params.minFloorGap) {
+    return [{ code: 'floor-gap-small', severity: 'warning', message: `Floor gap ${mm(stack.floorGap)} is less than the ${mm(params.minFloorGap)} asked for.`, field: 'panDepth' }]
+  }
+  return []
+}
+
+function sheetFindings(input: FindingsInput): Finding[] {
+  if (input.enclosingRadius * 2 <= SHEET_MM.width) return []
+  if (fitsRectangle(input.outline, SHEET_MM.width, SHEET_MM.length)) return []
+  return [{ code: 'larger-than-sheet', severity: 'warning', message: 'The plate does not fit a 48 x 96 in sheet in any orientation: each layer must be pieced.', field: 'lobes.reach' }]
+}
+
+export function plateFindings(input: FindingsInput): Finding[] {
+  const items = keepouts(input)
+  return [
+    ...edgeFindings(input, items),
+    ...spacingFindings(input, items),
+    ...trunkWallFindings(input),
+    ...casterFindings(input),
+    ...floorFindings(input),
+    ...sheetFindings(input),
+  ]
+}

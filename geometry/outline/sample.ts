@@ -1,0 +1,149 @@
+// Turning the radius function into the two forms callers need: a polygon whose
+// chords stay within a tolerance of the curve (for areas, checks, nesting and
+// DXF), and SVG path data of cubic curves (for drawing and PDF).
+
+import type { Point } from '../types'
+import type { OutlineShape } from './shape'
+
+const TWO_PI = 2 * Math.PI
+
+export interface SampleOptions {
+  /** Largest distance between the curve and a chord, mm. Default 0.1 (CONTRACTS.md). */
+  tolerance?: number
+}
+
+function initialCount(shape: OutlineShape, least: number): number {
+  // At least three samples across the narrowest lobe, so every lobe is seen before refining.
+  return Math.min(8192, Math.max(least, Math.ceil((3 * TWO_PI) / shape.finestAngle)))
+}
+
+export interface SampledOutline {
+  /** Counter-clockwise, first point not repeated. */
+  points: Point[]
+  /** The angle (radians, 0 to 2 pi) of each point. */
+  thetas: Float64Array
+}
+
+/**
+ * The outline as a counter-clockwise polygon. A uniform pass measures the
+ * curve's bending by second differences (the sagitta of a chord over a span h
+ * is |P''| h^2 / 8, and the second difference is |P''| h^2); each span is then
+ * cut into just enough equal pieces to keep the sagitta within a safety factor
+ * of the tolerance (half of it, and less where the bending changes fast). This costs one evaluation per output point, where halving
+ * a span and testing its midpoint costs two.
+ */
+export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}): SampledOutline {
+  const tol = (options.tolerance ?? 0.1) * 0.5
+  const n = initialCount(shape, 256)
+  const h = TWO_PI / n
+  const xs = new Float64Array(n)
+  const ys = new Float64Array(n)
+  for (let i = 0; i < n; i++) {
+    const [x, y] = shape.pointAt(i * h)
+    xs[i] = x
+    ys[i] = y
+  }
+  const bend = new Float64Array(n)
+  for (let i = 0; i < n; i++) {
+    const a = (i + n - 1) % n
+    const b = (i + 1) % n
+    bend[i] = Math.hypot(xs[a]! - 2 * xs[i]! + xs[b]!, ys[a]! - 2 * ys[i]! + ys[b]!)
+  }
+  const points: Point[] = []
+  const thetas: number[] = []
+  for (let i = 0; i < n; i++) {
+    const next = (i + 1) % n
+    const prev = (i + n - 1) % n
+    const hi = Math.max(bend[prev]!, bend[i]!, bend[next]!)
+    const lo = Math.min(bend[prev]!, bend[i]!, bend[next]!)
+    // Where the bending changes fast (a lobe tip, a blend) the estimate is least sure: allow up to double.
+    const sag = (hi / 8) * (hi > 0 ? 2 - lo / hi : 1)
+    const pieces = Math.min(64, Math.max(1, Math.ceil(Math.sqrt(sag / tol))))
+    points.push([xs[i]!, ys[i]!])
+    thetas.push(i * h)
+    for (let k = 1; k < pieces; k++) {
+      const t = (i + k / pieces) * h
+      points.push(shape.pointAt(t))
+      thetas.push(t)
+    }
+  }
+  return { points, thetas: Float64Array.from(thetas) }
+}
+
+export function samplePolygon(shape: OutlineShape, options: SampleOptions = {}): Point[] {
+  return sampleOutline(shape, options).points
+}
+
+function fmt(v: number): string {
+  return String(Math.round(v * 1000) / 1000)
+}
+
+/**
+ * SVG path data of cubic Beziers through some of the vertices of the sampled
+ * outline. Each span is the Hermite cubic matching the curve's position and
+ * tangent at both ends (tangents from the neighbouring samples by a
+ * second-order difference in the angle), so the path is smooth at every joint.
+ * A span is kept only if it passes within half the tolerance of every sample
+ * it skips; otherwise it is halved, down to one span per polygon edge.
+ */
+export function smoothPath(sampled: SampledOutline, options: SampleOptions = {}): string {
+  const tol = (options.tolerance ?? 0.1) / 2
+  const { points, thetas } = sampled
+  const n = points.length
+  const theta = (i: number) => thetas[((i % n) + n) % n]! + TWO_PI * Math.floor(i / n)
+  const at = (i: number) => points[((i % n) + n) % n]!
+  const dx = new Float64Array(n)
+  const dy = new Float64Array(n)
+  for (let i = 0; i < n; i++) {
+    const h1 = theta(i) - theta(i - 1)
+    const h2 = theta(i + 1) - theta(i)
+    const p0 = at(i - 1)
+    const p1 = at(i)
+    const p2 = at(i + 1)
+    const w = h1 * h2 * (h1 + h2)
+    dx[i] = (h1 * h1 * (p2[0] - p1[0]) + h2 * h2 * (p1[0] - p0[0])) / w
+    dy[i] = (h1 * h1 * (p2[1] - p1[1]) + h2 * h2 * (p1[1] - p0[1])) / w
+  }
+
+  const parts: string[] = []
+  const span = (i: number, j: number, check: boolean): boolean => {
+    const a = at(i)
+    const b = at(j)
+    const ia = ((i % n) + n) % n
+    const ib = ((j % n) + n) % n
+    const k = (theta(j) - theta(i)) / 3
+    const c1x = a[0] + dx[ia]! * k
+    const c1y = a[1] + dy[ia]! * k
+    const c2x = b[0] - dx[ib]! * k
+    const c2y = b[1] - dy[ib]! * k
+    if (check) {
+      for (let m = i + 1; m < j; m++) {
+        const t = (theta(m) - theta(i)) / (3 * k)
+        const u = 1 - t
+        const bx = u * u * u * a[0] + 3 * u * u * t * c1x + 3 * u * t * t * c2x + t * t * t * b[0]
+        const by = u * u * u * a[1] + 3 * u * u * t * c1y + 3 * u * t * t * c2y + t * t * t * b[1]
+        const p = at(m)
+        if (Math.hypot(bx - p[0], by - p[1]) > tol) return false
+      }
+    }
+    parts.push(`C${fmt(c1x)} ${fmt(c1y)} ${fmt(c2x)} ${fmt(c2y)} ${fmt(b[0])} ${fmt(b[1])}`)
+    return true
+  }
+
+  // Long spans first: the polygon's spacing already follows the bending, and a
+  // cubic follows a smooth curve far more closely than a chord does.
+  const fit = (i: number, j: number): void => {
+    if (j - i <= 1) {
+      span(i, j, false)
+      return
+    }
+    if (span(i, j, true)) return
+    const m = (i + j) >> 1
+    fit(i, m)
+    fit(m, j)
+  }
+  const stride = 12
+  for (let i = 0; i < n; i += stride) fit(i, Math.min(i + stride, n))
+  const first = at(0)
+  return `M${fmt(first[0])} ${fmt(first[1])}${parts.join('')}Z`
+}

@@ -1,0 +1,86 @@
+// buildPlate: parameters in, a whole plate out. Pure and synchronous; it runs
+// on every pointer move in the editor and again on the server for exports.
+
+import type { PlateParams } from './params'
+import type { LobeTip, Plate, Point } from './types'
+import type { Circle } from './math/circles'
+import { roundFeatures } from './features/holes'
+import { casterMounts, tubeNotches } from './features/casters'
+import { outlineShape } from './outline/shape'
+import { sampleOutline, smoothPath } from './outline/sample'
+import { floorStack } from './checks/floor'
+import { plateFindings } from './checks/findings'
+import { plateMetrics } from './metrics/metrics'
+
+const DEG = Math.PI / 180
+/** Extra room (mm) kept round every clearance circle so the polygon's chords (up to 0.1 mm inside the curve) never eat into the minimum wood. */
+const CHORD_ALLOWANCE = 0.2
+
+export interface BuildOptions {
+  /** Chord tolerance of the outline polygon and path, mm. Default 0.1. */
+  tolerance?: number
+}
+
+export function buildPlate(params: PlateParams, options: BuildOptions = {}): Plate {
+  const tolerance = options.tolerance ?? 0.1
+  const features = roundFeatures(params)
+  const { pockets, rabbets, access, centre, index } = features
+  const minWood = params.minWood + CHORD_ALLOWANCE
+
+  const clearances: Circle[] = [
+    ...rabbets.map((rb) => ({ x: rb.x, y: rb.y, radius: rb.diameter / 2 + minWood })),
+    ...[...access, centre, ...index].map((h) => ({ x: h.x, y: h.y, radius: h.diameter / 2 + minWood })),
+  ]
+  const shape = outlineShape(params, clearances)
+  const sampled = sampleOutline(shape, { tolerance })
+  const outline = sampled.points
+  const outlinePath = smoothPath(sampled, { tolerance })
+
+  const lobeTips: LobeTip[] = shape.lobes.map((l) => {
+    const radius = shape.radiusAt(l.angle)
+    return { index: l.index, angle: (((l.angle / DEG) % 360) + 360) % 360, radius, x: radius * Math.cos(l.angle), y: radius * Math.sin(l.angle) }
+  })
+
+  const mounts = casterMounts(params, pockets)
+  const notches = tubeNotches(params, rabbets)
+  const stack = floorStack(params)
+  const holes = [...pockets, ...access, centre, ...index]
+  const metrics = plateMetrics({
+    outline,
+    holes,
+    rabbets,
+    pocketDiameter: params.pocketDiameter,
+    thickness: stack.thickness,
+    floorGap: stack.floorGap,
+  })
+  const findings = plateFindings({
+    params,
+    outline,
+    pockets,
+    rabbets,
+    access,
+    centre,
+    index,
+    casterMounts: mounts,
+    stack,
+    enclosingRadius: metrics.enclosingCircle.radius,
+  })
+
+  const a = params.rotation * DEG
+  const reach = params.tubeDiameter / 2
+  const axisEnd: Point = [reach * Math.cos(a), reach * Math.sin(a)]
+  return {
+    params,
+    outline,
+    outlinePath,
+    holes,
+    trunk: { x: 0, y: 0, diameter: params.tubeDiameter, innerDiameter: params.tubeDiameter - 2 * params.tubeWall },
+    rabbets,
+    casterMounts: mounts,
+    notches,
+    lobeTips,
+    axis: { angle: params.rotation, from: [-axisEnd[0], -axisEnd[1]], to: axisEnd },
+    findings,
+    metrics,
+  }
+}

@@ -1,0 +1,118 @@
+// Starting shapes, and sizing one shape to another tube. The preset names and
+// numbers are our own; each is a sound plate (no findings) as shipped.
+
+import { minCasterOffset, plateParamsSchema, type PlateParams, type PlateParamsInput } from './params'
+
+export interface Preset {
+  id: string
+  name: string
+  description: string
+  input: PlateParamsInput
+}
+
+export const PRESETS: readonly Preset[] = [
+  {
+    id: 'gnarled-oak',
+    name: 'Gnarled oak',
+    description: 'Five heavy, uneven roots round a 16 in tube on four casters.',
+    input: {
+      tubeDiameter: 419.1,
+      casterCount: 4,
+      casterOffset: 235,
+      access: { offset: 150 },
+      lobes: { count: 5, reach: 170, width: 170, roundness: 0.35, irregularity: 0.8, seed: 1337, valley: 22 },
+    },
+  },
+  {
+    id: 'slim-birch',
+    name: 'Slim birch',
+    description: 'Three tidy, rounded feet under an 8 in tube.',
+    input: {
+      tubeDiameter: 215.9,
+      casterOffset: 125,
+      access: { enabled: false },
+      lobes: { count: 3, reach: 70, width: 130, roundness: 0.8, irregularity: 0.1, seed: 21, valley: 20 },
+    },
+  },
+  {
+    id: 'banyan-sprawl',
+    name: 'Banyan sprawl',
+    description: 'Ten long, narrow roots reaching out from a 24 in tube on six casters.',
+    input: {
+      tubeDiameter: 622.3,
+      casterCount: 6,
+      casterOffset: 330,
+      access: { offset: 220, diameter: 101.6 },
+      lobes: { count: 10, reach: 230, width: 95, roundness: 0.15, irregularity: 0.6, seed: 4242, valley: 30 },
+    },
+  },
+  {
+    id: 'river-stone',
+    name: 'River stone',
+    description: 'A lumpy, rounded boulder base with three broad swells.',
+    input: {
+      tubeDiameter: 457.2,
+      casterOffset: 240,
+      access: { offset: 150, diameter: 76.2 },
+      lobes: { count: 3, reach: 60, width: 420, roundness: 1, irregularity: 0.9, seed: 99, valley: 35 },
+    },
+  },
+  {
+    id: 'plain-column',
+    name: 'Plain column',
+    description: 'A round plate for a column: no roots, an even rim.',
+    input: {
+      tubeDiameter: 317.5,
+      lobes: { count: 0, irregularity: 0, valley: 40 },
+    },
+  },
+]
+
+/** The parsed parameters of a preset, or undefined for an unknown id. */
+export function presetParams(id: string): PlateParams | undefined {
+  const preset = PRESETS.find((p) => p.id === id)
+  return preset ? plateParamsSchema.parse(preset.input) : undefined
+}
+
+// Rounded to a micrometre so derived values store as cleanly as typed ones.
+const clamp = (v: number, lo: number, hi: number) => Math.round(Math.min(hi, Math.max(lo, v)) * 1000) / 1000
+
+/** Bounds of the tube diameter field, mm (4 to 49 in). */
+export const TUBE_DIAMETER_RANGE = { min: 101.6, max: 1244.6 } as const
+
+/**
+ * The same design on another tube. The look scales with the trunk (lobe
+ * reach, width and valley, and per-lobe overrides); real hardware keeps its
+ * size (pockets, rabbets, casters, holes, minimum wood, plywood). Pockets and
+ * openings move out or in with the tube wall, so the pans tuck under the trunk
+ * by the same amount; a caster offset that would bring a pocket onto the
+ * centre hole stops at the least allowed. The new diameter is held within the
+ * field's bounds. The result always satisfies the schema.
+ */
+export function deriveForTube(params: PlateParams, newTubeDiameter: number): PlateParams {
+  const tube = clamp(newTubeDiameter, TUBE_DIAMETER_RANGE.min, TUBE_DIAMETER_RANGE.max)
+  const s = tube / params.tubeDiameter
+  const shift = (tube - params.tubeDiameter) / 2
+  const lobes = params.lobes
+  const candidate: PlateParams = {
+    ...params,
+    caster: { ...params.caster },
+    access: { ...params.access, offset: clamp(params.access.offset + shift, 0, 1500) },
+    tubeDiameter: tube,
+    casterOffset: clamp(Math.max(params.casterOffset + shift, minCasterOffset(params)), 20, 1500),
+    lobes: {
+      ...lobes,
+      reach: clamp(lobes.reach * s, 0, 900),
+      width: clamp(lobes.width * s, 10, 1200),
+      valley: clamp(lobes.valley * s, 6, 300),
+      overrides: lobes.overrides.map((o) => ({
+        ...o,
+        ...(o.reach !== undefined ? { reach: clamp(o.reach * s, 0, 900) } : {}),
+        ...(o.width !== undefined ? { width: clamp(o.width * s, 10, 1200) } : {}),
+      })),
+    },
+  }
+  // A tube wall thicker than the new tube allows is the one rule scaling can break.
+  if (candidate.tubeWall * 2 >= tube) candidate.tubeWall = Math.max(1, tube / 4)
+  return plateParamsSchema.parse(candidate)
+}
