@@ -186,14 +186,14 @@ export class Ops {
 
   textWidth(text: string, size: number): number {
     if (!this.font) throw new Error('No font given to this content stream.')
-    return this.font.widthOfTextAtSize(text, size)
+    return encode(this.font, sanitise(this.font, text), size).width
   }
 
   text(text: string, x: number, y: number, size: number, options: TextOptions = {}): this {
     if (!this.font) throw new Error('No font given to this content stream.')
     const safe = sanitise(this.font, text)
     if (safe === '') return this
-    const w = this.font.widthOfTextAtSize(safe, size)
+    const { hex, width: w } = encode(this.font, safe, size)
     const shift = options.align === 'center' ? w / 2 : options.align === 'right' ? w : 0
     const a = ((options.angle ?? 0) * Math.PI) / 180
     const cos = Math.cos(a)
@@ -201,9 +201,8 @@ export class Ops {
     const tx = x - shift * cos
     const ty = y - shift * sin
     const c = options.colour ?? COLOURS.ink
-    const encoded = this.font.encodeText(safe).toString()
     return this.raw(
-      `BT ${num(c[0])} ${num(c[1])} ${num(c[2])} rg /${this.fontName} ${num(size)} Tf ${num(cos)} ${num(sin)} ${num(-sin)} ${num(cos)} ${num(tx)} ${num(ty)} Tm ${encoded} Tj ET`,
+      `BT ${num(c[0])} ${num(c[1])} ${num(c[2])} rg /${this.fontName} ${num(size)} Tf ${num(cos)} ${num(sin)} ${num(-sin)} ${num(cos)} ${num(tx)} ${num(ty)} Tm ${hex} Tj ET`,
     )
   }
 
@@ -212,19 +211,65 @@ export class Ops {
   }
 }
 
-const charsetCache = new WeakMap<PDFFont, Set<number>>()
+interface Glyph {
+  /** Hex glyph code(s) in the embedded font's encoding, without the angle brackets. */
+  hex: string
+  /** Advance width at size 1. */
+  width: number
+}
+
+interface FontCache {
+  charset: Set<number>
+  glyphs: Map<string, Glyph>
+}
+
+const fontCaches = new WeakMap<PDFFont, FontCache>()
+
+/**
+ * Text is encoded one character at a time, each character once per font:
+ * fontkit's layout costs about a third of a millisecond a call, and a
+ * template writes the same few dozen characters hundreds of times. Without
+ * kerning or ligatures the advance widths add up exactly as the PDF viewer
+ * will place the glyphs.
+ */
+function glyphsOf(font: PDFFont): FontCache {
+  let cache = fontCaches.get(font)
+  if (!cache) {
+    cache = { charset: new Set(font.getCharacterSet()), glyphs: new Map() }
+    fontCaches.set(font, cache)
+  }
+  return cache
+}
+
+function glyph(font: PDFFont, cache: FontCache, ch: string): Glyph {
+  let g = cache.glyphs.get(ch)
+  if (!g) {
+    g = { hex: font.encodeText(ch).toString().slice(1, -1), width: font.widthOfTextAtSize(ch, 1) }
+    cache.glyphs.set(ch, g)
+  }
+  return g
+}
 
 /** Characters the font lacks (a design named in another script) become '?', never a missing glyph box or a crash. */
 export function sanitise(font: PDFFont, text: string): string {
-  let set = charsetCache.get(font)
-  if (!set) {
-    set = new Set(font.getCharacterSet())
-    charsetCache.set(font, set)
-  }
+  const { charset } = glyphsOf(font)
   let out = ''
   for (const ch of text.replace(/[\r\n\t]+/g, ' ')) {
     const cp = ch.codePointAt(0) ?? 63
-    out += set.has(cp) ? ch : '?'
+    out += charset.has(cp) ? ch : '?'
   }
   return out
+}
+
+/** Hex string and width at `size` of already sanitised text. */
+export function encode(font: PDFFont, text: string, size: number): { hex: string; width: number } {
+  const cache = glyphsOf(font)
+  let hex = ''
+  let width = 0
+  for (const ch of text) {
+    const g = glyph(font, cache, ch)
+    hex += g.hex
+    width += g.width
+  }
+  return { hex: `<${hex}>`, width: width * size }
 }

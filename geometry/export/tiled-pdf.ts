@@ -7,8 +7,8 @@
 import fontkit from '@pdf-lib/fontkit'
 import { PDFDocument, PDFName, type PDFFont, type PDFRef } from 'pdf-lib'
 import type { Point } from '../types'
-import { resolveFontBytes, type FontBytes } from './fonts'
-import { COLOURS, Ops, type LineStyle, type Rgb } from './pdf-ops'
+import { resolveFontBytes, unpackWoff, type FontBytes } from './fonts'
+import { COLOURS, encode, Ops, sanitise, type LineStyle, type Rgb } from './pdf-ops'
 import { simplifyClosed } from './polyline'
 import {
   PAPERS,
@@ -78,7 +78,7 @@ function wrap(font: PDFFont, text: string, size: number, width: number): string[
   let line = ''
   for (const word of words) {
     const next = line ? `${line} ${word}` : word
-    if (line && font.widthOfTextAtSize(next, size) > width) {
+    if (line && encode(font, sanitise(font, next), size).width > width) {
       lines.push(line)
       line = word
     } else line = next
@@ -405,7 +405,7 @@ export async function renderTiledPdf(drawing: TiledDrawing, tiling: Tiling, sett
   const date = settings.meta.date ?? today()
   const doc = await PDFDocument.create()
   doc.registerFontkit(fontkit)
-  const font = await doc.embedFont(await resolveFontBytes(settings.font), { subset: true })
+  const font = await doc.embedFont(await unpackWoff(await resolveFontBytes(settings.font)), { subset: true })
   const title = `${settings.meta.designName} - ${drawing.title}`
   doc.setTitle(title)
   doc.setCreator('Rootplate')

@@ -73,6 +73,11 @@ export interface TilingOptions {
   margin?: number
   /** Printed strip shared by neighbouring sheets, mm. Default 12.7 (1/2 in). */
   overlap?: number
+  /**
+   * Where the content sits in the grid's spare height. Default 'centre';
+   * 'bottom' leaves the spare paper at the top, clear for the sheet's title block.
+   */
+  anchor?: 'centre' | 'bottom'
 }
 
 /** What is to be tiled: its extent and the closed shapes that decide whether a sheet is empty. */
@@ -154,41 +159,47 @@ function pointInPolygon(x: number, y: number, polygon: Point[]): boolean {
   return inside
 }
 
-/** Liang-Barsky: does the segment touch the rectangle? */
-function segmentTouchesRect(x0: number, y0: number, x1: number, y1: number, r: Rect): boolean {
-  const dx = x1 - x0
-  const dy = y1 - y0
-  let t0 = 0
-  let t1 = 1
-  const p = [-dx, dx, -dy, dy]
-  const q = [x0 - r.minX, r.maxX - x0, y0 - r.minY, r.maxY - y0]
-  for (let i = 0; i < 4; i++) {
-    const pi = p[i]!
-    const qi = q[i]!
-    if (pi === 0) {
-      if (qi < 0) return false
-    } else {
-      const t = qi / pi
-      if (pi < 0) {
-        if (t > t1) return false
-        if (t > t0) t0 = t
-      } else {
-        if (t < t0) return false
-        if (t < t1) t1 = t
-      }
-    }
+/** Liang-Barsky clip of one boundary: narrows [t0, t1], or reports the segment entirely outside it. */
+function clipEdge(p: number, q: number, range: { t0: number; t1: number }): boolean {
+  if (p === 0) return q >= 0
+  const t = q / p
+  if (p < 0) {
+    if (t > range.t1) return false
+    if (t > range.t0) range.t0 = t
+  } else {
+    if (t < range.t0) return false
+    if (t < range.t1) range.t1 = t
   }
   return true
+}
+
+/** Liang-Barsky: does the segment touch the rectangle? */
+function segmentTouchesRect(x0: number, y0: number, x1: number, y1: number, r: Rect, range: { t0: number; t1: number }): boolean {
+  // Both ends beyond the same side: the common case, settled without clipping.
+  if ((x0 < r.minX && x1 < r.minX) || (x0 > r.maxX && x1 > r.maxX) || (y0 < r.minY && y1 < r.minY) || (y0 > r.maxY && y1 > r.maxY)) {
+    return false
+  }
+  const dx = x1 - x0
+  const dy = y1 - y0
+  range.t0 = 0
+  range.t1 = 1
+  return (
+    clipEdge(-dx, x0 - r.minX, range) &&
+    clipEdge(dx, r.maxX - x0, range) &&
+    clipEdge(-dy, y0 - r.minY, range) &&
+    clipEdge(dy, r.maxY - y0, range)
+  )
 }
 
 /** True when any part of the closed polygon (its area or its edge) lies in the rectangle. */
 export function polygonTouchesRect(polygon: Point[], r: Rect): boolean {
   const n = polygon.length
   if (n === 0) return false
+  const range = { t0: 0, t1: 1 }
   for (let i = 0; i < n; i++) {
     const a = polygon[i]!
-    const b = polygon[(i + 1) % n]!
-    if (segmentTouchesRect(a[0], a[1], b[0], b[1], r)) return true
+    const b = polygon[i + 1 === n ? 0 : i + 1]!
+    if (segmentTouchesRect(a[0], a[1], b[0], b[1], r, range)) return true
   }
   // No edge reaches the rectangle: it is either wholly inside the polygon or wholly outside.
   return pointInPolygon((r.minX + r.maxX) / 2, (r.minY + r.maxY) / 2, polygon)
@@ -231,7 +242,14 @@ function rollAlong(extent: number, margin: number, overlap: number): { printable
   return { printable, count }
 }
 
-function layout(content: TileContent, paper: PaperName, orientation: Orientation, margin: number, overlap: number): Tiling {
+function layout(
+  content: TileContent,
+  paper: PaperName,
+  orientation: Orientation,
+  margin: number,
+  overlap: number,
+  anchor: 'centre' | 'bottom',
+): Tiling {
   const spec = PAPERS[paper]
   const width = content.bounds.maxX - content.bounds.minX
   const height = content.bounds.maxY - content.bounds.minY
@@ -261,11 +279,12 @@ function layout(content: TileContent, paper: PaperName, orientation: Orientation
   const gridWidth = cols * stepX + overlap
   const gridHeight = rows * stepY + overlap
   // Centre the grid on the content so the spare paper is shared round the edges.
+  const spareY = anchor === 'bottom' ? 0 : (gridHeight - height) / 2
   const grid: Rect = {
     minX: content.bounds.minX - (gridWidth - width) / 2,
     maxX: content.bounds.maxX + (gridWidth - width) / 2,
-    minY: content.bounds.minY - (gridHeight - height) / 2,
-    maxY: content.bounds.maxY + (gridHeight - height) / 2,
+    minY: content.bounds.minY - spareY,
+    maxY: content.bounds.minY - spareY + gridHeight,
   }
   const sheets: Sheet[] = []
   for (let row = 0; row < rows; row++) {
@@ -326,14 +345,15 @@ export function tileContent(content: TileContent, options: TilingOptions): Tilin
   checkLength('margin', margin)
   checkLength('overlap', overlap)
   const orientation = options.orientation ?? 'auto'
+  const anchor = options.anchor ?? 'centre'
   if (orientation === 'portrait' || orientation === 'landscape') {
-    return layout(content, paper, orientation, margin, overlap)
+    return layout(content, paper, orientation, margin, overlap, anchor)
   }
   if (orientation !== 'auto') {
     throw new RangeError(`Unknown orientation ${JSON.stringify(orientation)}: use auto, portrait or landscape.`)
   }
-  const portrait = layout(content, paper, 'portrait', margin, overlap)
-  const landscape = layout(content, paper, 'landscape', margin, overlap)
+  const portrait = layout(content, paper, 'portrait', margin, overlap, anchor)
+  const landscape = layout(content, paper, 'landscape', margin, overlap, anchor)
   const paperUsed = (t: Tiling) => t.printed * t.pageWidth * t.pageHeight
   if (landscape.printed !== portrait.printed) return landscape.printed < portrait.printed ? landscape : portrait
   if (PAPERS[paper].height === null && Math.abs(paperUsed(landscape) - paperUsed(portrait)) > 1) {

@@ -92,11 +92,16 @@ function drawWrapBody(ops: Ops, layout: TubeWrapLayout, plate: Plate, units: Exp
     }
     ops.style(S.centre).line(n.centre, 0, n.centre, NH + 6).stroke()
     const pocket = n.pocketId.replace(/^pocket-(\d+)$/, (_, i: string) => `pocket ${Number(i) + 1}`)
-    ops.text(`notch over ${pocket}`, n.centre, NH + 12, 3.2, { align: 'center', colour: COLOURS.notch })
-    ops.text(`${len(n.width)} wide, centre ${len(n.centre)} from the index line`, n.centre, NH + 7.5, 2.6, {
-      align: 'center',
-      colour: COLOURS.muted,
-    })
+    // A notch split by the index line is labelled on each part, the text kept on the strip.
+    for (const [a, b] of n.spans) {
+      const align = a <= 0 ? 'left' : b >= C ? 'right' : 'center'
+      const x = align === 'left' ? a + 2 : align === 'right' ? b - 2 : (a + b) / 2
+      ops.text(`notch over ${pocket}`, x, NH + 12, 3.2, { align, colour: COLOURS.notch })
+      ops.text(`${len(n.width)} wide, centre ${len(n.centre)} from the index line`, x, NH + 7.5, 2.6, {
+        align,
+        colour: COLOURS.muted,
+      })
+    }
   }
 
   // Length ticks along the top edge: every inch or every 10 mm, numbered every 6 in or 100 mm.
@@ -149,6 +154,7 @@ export function planTubeWrap(plate: Plate, options: TubeWrapOptions): TubeWrap {
   const content = { bounds: boundsOf(strip, DEFAULT_PAD), polygons: [strip] }
   const tiling = tileContent(content, {
     paper: options.paper,
+    anchor: 'bottom',
     ...(options.orientation ? { orientation: options.orientation } : {}),
     ...(options.margin !== undefined ? { margin: options.margin } : {}),
     ...(options.overlap !== undefined ? { overlap: options.overlap } : {}),

@@ -1,0 +1,172 @@
+// The template read back with pdf-lib (PDFDocument.load) and its content
+// streams inflated with node:zlib (Flate, RFC 1950).
+import { execFileSync } from 'node:child_process'
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { join } from 'node:path'
+import { inflateSync } from 'node:zlib'
+import { PDFArray, PDFDocument, PDFRawStream, PDFRef, type PDFPage } from 'pdf-lib'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { renderTemplatePdf, planTemplate } from '../../../geometry/export/template-pdf'
+import { plateToPage, type PaperName } from '../../../geometry/export/tiling'
+import { loadTemplateFontNode } from '../../../geometry/export/fonts-node'
+import type { Point } from '../../../geometry/types'
+import { fixturePlate } from './fixture'
+
+const PT_PER_MM = 72 / 25.4 // ISO 32000-1, 8.3.2.3; 25.4 mm per inch
+const meta = { designName: 'Test oak', sizeLabel: '12 in', revision: 4, date: '2025-03-01' }
+let font: Uint8Array
+
+beforeAll(async () => {
+  font = await loadTemplateFontNode()
+})
+
+function pageStreams(doc: PDFDocument, page: PDFPage): string {
+  const contents = page.node.Contents()
+  const refs = contents instanceof PDFArray ? contents.asArray() : contents ? [contents] : []
+  return refs
+    .map((r) => {
+      const stream = r instanceof PDFRef ? doc.context.lookup(r) : r
+      if (!(stream instanceof PDFRawStream)) throw new Error('unexpected stream type')
+      return inflateSync(Buffer.from(stream.contents)).toString('latin1')
+    })
+    .join('\n')
+}
+
+/** The matrix placed right before the drawing on a sheet. */
+function bodyMatrix(content: string): number[] {
+  const m = /([-\d.]+) ([-\d.]+) ([-\d.]+) ([-\d.]+) ([-\d.]+) ([-\d.]+) cm\n\/RpBody Do/.exec(content)
+  if (!m) throw new Error('no placement of the drawing on this page')
+  return m.slice(1).map(Number)
+}
+
+describe('renderTemplatePdf page sizes', () => {
+  const plate = fixturePlate({ radius: 300, amplitude: 0 })
+  const cases: [PaperName, number, number, string][] = [
+    ['a4', 595.28, 841.89, 'ISO 216'],
+    ['a3', 841.89, 1190.55, 'ISO 216'],
+    ['letter', 612, 792, 'ASME Y14.1'],
+    ['tabloid', 792, 1224, 'ASME Y14.1'],
+    ['legal', 612, 1008, 'common practice'],
+  ]
+  for (const [paper, w, h, source] of cases) {
+    it(`${paper} pages are ${w} x ${h} pt (${source}; 72 pt per inch, ISO 32000-1 8.3.2.3)`, async () => {
+      const doc = await PDFDocument.load(await renderTemplatePdf(plate, { paper, orientation: 'portrait', meta, font }))
+      for (const page of doc.getPages()) {
+        const { width, height } = page.getSize()
+        expect(width).toBeCloseTo(w, 1)
+        expect(height).toBeCloseTo(h, 1)
+      }
+      const landscape = await PDFDocument.load(await renderTemplatePdf(plate, { paper, orientation: 'landscape', meta, font }))
+      const last = landscape.getPages().at(-1)!.getSize()
+      expect(last.width).toBeCloseTo(h, 1)
+      expect(last.height).toBeCloseTo(w, 1)
+    })
+  }
+
+  it('cuts roll pages to the plate, no longer than 14,400 pt (ISO 32000-1 Annex C)', async () => {
+    const big = fixturePlate({ radius: 762, amplitude: 0 })
+    const doc = await PDFDocument.load(await renderTemplatePdf(big, { paper: 'roll-36in', meta, font }))
+    const sheets = doc.getPages().slice(1)
+    expect(sheets.length).toBeGreaterThan(0)
+    for (const p of sheets) {
+      const { width, height } = p.getSize()
+      expect(Math.min(width, height)).toBeCloseTo(36 * 72, 3)
+      expect(Math.max(width, height)).toBeLessThanOrEqual(14400)
+    }
+  })
+})
+
+describe('renderTemplatePdf sheets', () => {
+  // The 1200 mm circle of tiling.test.ts: 7 x 5 Letter sheets less 4 empty corners = 31, plus the cover.
+  const plate = fixturePlate({ radius: 600, amplitude: 0 })
+  let doc: PDFDocument
+
+  beforeAll(async () => {
+    doc = await PDFDocument.load(await renderTemplatePdf(plate, { paper: 'letter', meta, font }))
+  })
+
+  it('has a cover and one page per printed sheet (31 + 1, counted by hand)', () => {
+    expect(doc.getPageCount()).toBe(32)
+  })
+
+  it('draws at exactly 1:1 and puts a point of the overlap where the tiling says, on both neighbours', () => {
+    const { tiling } = planTemplate(plate, { paper: 'letter' })
+    // A1 is left out, so A2 is page 2 and A3 page 3 (index 1 and 2).
+    const a2 = tiling.sheets.find((s) => s.label === 'A2')!
+    const a3 = tiling.sheets.find((s) => s.label === 'A3')!
+    const m2 = bodyMatrix(pageStreams(doc, doc.getPage(1)))
+    const m3 = bodyMatrix(pageStreams(doc, doc.getPage(2)))
+    for (const m of [m2, m3]) {
+      expect(m[0]).toBeCloseTo(PT_PER_MM, 5)
+      expect(m[3]).toBeCloseTo(PT_PER_MM, 5)
+      expect(m[1]).toBe(0)
+      expect(m[2]).toBe(0)
+    }
+    const p: Point = [-285.75, 500]
+    const apply = (m: number[]) => [m[0]! * p[0] + m[4]!, m[3]! * p[1] + m[5]!]
+    const onA2 = apply(m2)
+    const onA3 = apply(m3)
+    // Hand figures from tiling.test.ts: 576 pt on A2, 36 pt on A3, same height.
+    expect(onA2[0]).toBeCloseTo(576, 2)
+    expect(onA3[0]).toBeCloseTo(36, 2)
+    expect(onA2[1]).toBeCloseTo(onA3[1]!, 3)
+    expect(onA2[0]).toBeCloseTo(plateToPage(tiling, a2, p)[0], 3)
+    expect(onA3[0]).toBeCloseTo(plateToPage(tiling, a3, p)[0], 3)
+  })
+
+  it('clips each sheet to its printable window', () => {
+    const content = pageStreams(doc, doc.getPage(1))
+    // Letter portrait less 1/4 in each side: 8 x 10.5 in = 576 x 756 pt, from (18, 18).
+    expect(content).toMatch(/q\n18 18 576 756 re\nW n\n/)
+  })
+
+  it('writes the design name and metadata', () => {
+    expect(doc.getTitle()).toBe('Test oak - Plate template')
+    expect(doc.getCreator()).toBe('Rootplate')
+  })
+
+  it('adds the router pattern line only when a bushing is given, and tiles to cover it', () => {
+    const small = fixturePlate({ radius: 300, amplitude: 0 })
+    const plain = planTemplate(small, { paper: 'letter' })
+    const routed = planTemplate(small, { paper: 'letter', bushing: { bushingDiameter: 30, bitDiameter: 10 } })
+    expect(routed.tiling.content.maxX - plain.tiling.content.maxX).toBeCloseTo(10, 1)
+    expect(routed.drawing.legend.length).toBe(plain.drawing.legend.length + 1)
+  })
+
+  it('rejects a bad paper or unit', async () => {
+    await expect(renderTemplatePdf(plate, { paper: 'b5' as never, font })).rejects.toThrow(/Unknown paper/)
+    await expect(renderTemplatePdf(plate, { paper: 'letter', units: 'cm' as never, font })).rejects.toThrow(/Unknown units/)
+  })
+})
+
+describe('picture check', () => {
+  const pdftoppm = '/usr/bin/pdftoppm'
+  const out = join(process.cwd(), 'test-results', 'export')
+
+  it.skipIf(!existsSync(pdftoppm))('renders the cover and a content sheet to PNG (poppler-utils pdftoppm)', async () => {
+    mkdirSync(out, { recursive: true })
+    const plate = fixturePlate({ radius: 420, amplitude: 90, lobes: 3 })
+    const bytes = await renderTemplatePdf(plate, {
+      paper: 'letter',
+      meta: { designName: 'Picture check oak', sizeLabel: '12 in', revision: 2, date: '2025-03-01' },
+      bushing: { bushingDiameter: 15.875, bitDiameter: 12.7 },
+      font,
+    })
+    const pdf = join(out, 'template.pdf')
+    writeFileSync(pdf, bytes)
+    const { tiling } = planTemplate(plate, { paper: 'letter', bushing: { bushingDiameter: 15.875, bitDiameter: 12.7 } })
+    // A sheet holding the first pocket, with its rabbet, caster plate and bolt holes.
+    const printed = tiling.sheets.filter((s) => !s.empty)
+    const pocket = plate.holes.find((h) => h.kind === 'pocket')!
+    const holding = printed.filter((s) => s.window.minX < pocket.x && pocket.x < s.window.maxX && s.window.minY < pocket.y && pocket.y < s.window.maxY)
+    const target = holding[0]!
+    const pageNo = printed.indexOf(target) + 2
+    execFileSync(pdftoppm, ['-png', '-r', '50', '-f', '1', '-l', '1', '-singlefile', pdf, join(out, 'cover')])
+    execFileSync(pdftoppm, ['-png', '-r', '50', '-f', String(pageNo), '-l', String(pageNo), '-singlefile', pdf, join(out, `sheet-${target.label}`)])
+    // At 50 dpi a Letter page is 425 x 550 px: the rasteriser read the page at its true size.
+    const png = readFileSync(join(out, 'cover.png'))
+    expect(png.readUInt32BE(16)).toBe(425)
+    expect(png.readUInt32BE(20)).toBe(550)
+    expect(existsSync(join(out, `sheet-${target.label}.png`))).toBe(true)
+  })
+})
