@@ -4,9 +4,9 @@
 import type { PlateParams } from './params'
 import type { LobeTip, Plate, Point } from './types'
 import type { Circle } from './math/circles'
-import { roundFeatures } from './features/holes'
+import { roundFeatures, type RoundFeatures } from './features/holes'
 import { casterMounts, tubeNotches } from './features/casters'
-import { outlineShape } from './outline/shape'
+import { outlineShape, type OutlineShape } from './outline/shape'
 import { sampleOutline, smoothPath } from './outline/sample'
 import { floorStack } from './checks/floor'
 import { plateFindings } from './checks/findings'
@@ -21,17 +21,25 @@ export interface BuildOptions {
   tolerance?: number
 }
 
-export function buildPlate(params: PlateParams, options: BuildOptions = {}): Plate {
-  const tolerance = options.tolerance ?? 0.1
-  const features = roundFeatures(params)
-  const { pockets, rabbets, access, centre, index } = features
+/**
+ * The outline's radius function for a plate, with the clearance circles it
+ * encloses: each hole (a pocket by its rabbet) grown by the minimum wood.
+ */
+export function plateOutlineShape(params: PlateParams, features: RoundFeatures = roundFeatures(params)): OutlineShape {
+  const { rabbets, access, centre, index } = features
   const minWood = params.minWood + CHORD_ALLOWANCE
-
   const clearances: Circle[] = [
     ...rabbets.map((rb) => ({ x: rb.x, y: rb.y, radius: rb.diameter / 2 + minWood })),
     ...[...access, centre, ...index].map((h) => ({ x: h.x, y: h.y, radius: h.diameter / 2 + minWood })),
   ]
-  const shape = outlineShape(params, clearances)
+  return outlineShape(params, clearances)
+}
+
+export function buildPlate(params: PlateParams, options: BuildOptions = {}): Plate {
+  const tolerance = options.tolerance ?? 0.1
+  const features = roundFeatures(params)
+  const { pockets, rabbets, access, centre, index } = features
+  const shape = plateOutlineShape(params, features)
   const sampled = sampleOutline(shape, { tolerance })
   const outline = sampled.points
   const outlinePath = smoothPath(sampled, { tolerance })
