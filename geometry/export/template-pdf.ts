@@ -67,6 +67,11 @@ function topmost(points: Point[]): Point {
   return best
 }
 
+/** A circle as a 32-gon, close enough to keep a title block off it. */
+function ring(x: number, y: number, r: number): Point[] {
+  return Array.from({ length: 32 }, (_, i) => [x + r * Math.cos((i * Math.PI) / 16), y + r * Math.sin((i * Math.PI) / 16)] as Point)
+}
+
 /** Text rotated along a direction but never upside down. */
 function readableAngle(deg: number): number {
   const a = ((deg % 360) + 360) % 360
@@ -211,6 +216,14 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
     content: { bounds: tiling.content, polygons: [plate.outline, ...(routerLine ? [routerLine] : [])] },
     drawBody: (ops) => drawPlateBody(ops, plate, units, routerLine, offset),
     mapShapes: [plate.outline],
+    avoid: [
+      { shape: plate.outline, weight: 10 },
+      ...(routerLine ? [{ shape: routerLine, weight: 10 }] : []),
+      ...plate.holes.map((h) => ({ shape: ring(h.x, h.y, h.diameter / 2), weight: 3 })),
+      ...plate.rabbets.map((r) => ({ shape: ring(r.x, r.y, r.diameter / 2), weight: 2 })),
+      ...plate.casterMounts.map((m) => ({ shape: m.corners, weight: 1 })),
+      { shape: ring(plate.trunk.x, plate.trunk.y, plate.trunk.diameter / 2), weight: 1 },
+    ],
     legend,
     notes,
   }

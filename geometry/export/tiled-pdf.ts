@@ -11,6 +11,7 @@ import { resolveFontBytes, unpackWoff, type FontBytes } from './fonts'
 import { COLOURS, encode, Ops, sanitise, type LineStyle, type Rgb } from './pdf-ops'
 import { simplifyClosed } from './polyline'
 import {
+  edgesTouchRect,
   PAPERS,
   pageSizePt,
   rectContains,
@@ -47,6 +48,8 @@ export interface TiledDrawing {
   drawBody(ops: Ops): void
   /** Closed shapes for the page map and the location maps. */
   mapShapes: Point[][]
+  /** Lines a sheet's title block should keep clear of, heavier weight for the more important. */
+  avoid: { shape: Point[]; weight: number }[]
   legend: LegendEntry[]
   /** Lines for the cover under the assembly steps. */
   notes: string[]
@@ -290,6 +293,7 @@ function drawSheet(
   settings: TiledPdfSettings,
   date: string,
   mapSize: [number, number],
+  avoid: TiledDrawing['avoid'],
 ): void {
   const k = PT_PER_MM
   const wx = tiling.margin * k
@@ -367,16 +371,43 @@ function drawSheet(
     ops.text(n.right, wx + ww - inset - 8, cy - label * 0.35, label, { align: 'right', colour: COLOURS.accent })
   }
 
-  // Title block in the top-left corner, clear of the top and left strips.
-  const bx = wx + o + 10
-  let by = wy + wh - o - 10
-  ops.text(sheet.label, bx, by - 26, 30, { colour: COLOURS.accent })
+  // Title block in a corner clear of the strips, preferring one no outline runs through.
   const labelWidth = ops.textWidth(sheet.label, 30)
   const info = [
     settings.meta.designName,
     metaLine(settings.meta, date),
     `sheet ${index} of ${tiling.printed}  ·  full size 1:1`,
   ]
+  const blockW = Math.max(mapSize[0], 100, labelWidth + 10 + Math.max(...info.map((line) => ops.textWidth(line, 7.5))))
+  const blockH = 38 + mapSize[1] + 26
+  const left = wx + o + 10
+  const right = wx + ww - o - 10 - blockW
+  const top = wy + wh - o - 10
+  const bottom = wy + o + 10 + blockH
+  const corners: [number, number][] = [
+    [left, top],
+    [right, top],
+    [left, bottom],
+    [right, bottom],
+  ]
+  const toPlate = (x: number, y: number): Point => [(x - t.tx) / t.scale, (y - t.ty) / t.scale]
+  let best = corners[0]!
+  let bestScore = Infinity
+  for (const corner of corners) {
+    const [x, y] = corner
+    const [minX, minY] = toPlate(x - 4, y - blockH - 4)
+    const [maxX, maxY] = toPlate(x + blockW + 4, y + 4)
+    const r = { minX, minY, maxX, maxY }
+    const score = avoid.reduce((sum, a) => sum + (edgesTouchRect(a.shape, r) ? a.weight : 0), 0)
+    if (score < bestScore) {
+      best = corner
+      bestScore = score
+    }
+    if (score === 0) break
+  }
+  const [bx, blockTop] = best
+  let by = blockTop
+  ops.text(sheet.label, bx, by - 26, 30, { colour: COLOURS.accent })
   info.forEach((line, i) => ops.text(line, bx + labelWidth + 10, by - 8 - i * 9.5, 7.5, { colour: i === 0 ? COLOURS.ink : COLOURS.muted }))
   by -= 38
   const mh = mapSize[1]
@@ -452,7 +483,7 @@ export async function renderTiledPdf(drawing: TiledDrawing, tiling: Tiling, sett
     index++
     const page = doc.addPage(size)
     const ops = new Ops(font, FONT)
-    drawSheet(ops, tiling, sheet, index, crosses, settings, date, mapSize)
+    drawSheet(ops, tiling, sheet, index, crosses, settings, date, mapSize, drawing.avoid)
     page.node.addContentStream(register(ops.toString()))
     page.node.setFontDictionary(fontName, font.ref)
     page.node.setXObject(PDFName.of(BODY), bodyRef)

@@ -191,16 +191,22 @@ function segmentTouchesRect(x0: number, y0: number, x1: number, y1: number, r: R
   )
 }
 
-/** True when any part of the closed polygon (its area or its edge) lies in the rectangle. */
-export function polygonTouchesRect(polygon: Point[], r: Rect): boolean {
+/** True when an edge of the closed polygon passes through the rectangle. */
+export function edgesTouchRect(polygon: Point[], r: Rect): boolean {
   const n = polygon.length
-  if (n === 0) return false
   const range = { t0: 0, t1: 1 }
   for (let i = 0; i < n; i++) {
     const a = polygon[i]!
     const b = polygon[i + 1 === n ? 0 : i + 1]!
     if (segmentTouchesRect(a[0], a[1], b[0], b[1], r, range)) return true
   }
+  return false
+}
+
+/** True when any part of the closed polygon (its area or its edge) lies in the rectangle. */
+export function polygonTouchesRect(polygon: Point[], r: Rect): boolean {
+  if (polygon.length === 0) return false
+  if (edgesTouchRect(polygon, r)) return true
   // No edge reaches the rectangle: it is either wholly inside the polygon or wholly outside.
   return pointInPolygon((r.minX + r.maxX) / 2, (r.minY + r.maxY) / 2, polygon)
 }

@@ -169,6 +169,7 @@ export function planTubeWrap(plate: Plate, options: TubeWrapOptions): TubeWrap {
     content,
     drawBody: (ops) => drawWrapBody(ops, layout, plate, units),
     mapShapes: [strip],
+    avoid: [{ shape: strip, weight: 1 }],
     legend,
     notes: [
       `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them. Notch height ${formatShopLength(layout.notchHeight, units)}: set it to clear the pan rim and caster plate.`,

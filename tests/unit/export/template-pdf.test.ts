@@ -10,6 +10,7 @@ import { renderTemplatePdf, planTemplate } from '../../../geometry/export/templa
 import { plateToPage, type PaperName } from '../../../geometry/export/tiling'
 import { loadTemplateFontNode } from '../../../geometry/export/fonts-node'
 import type { Point } from '../../../geometry/types'
+import { buildPlate, plateParamsSchema, PRESETS } from '../../../geometry/index'
 import { fixturePlate } from './fixture'
 
 const PT_PER_MM = 72 / 25.4 // ISO 32000-1, 8.3.2.3; 25.4 mm per inch
@@ -145,7 +146,7 @@ describe('picture check', () => {
 
   it.skipIf(!existsSync(pdftoppm))('renders the cover and a content sheet to PNG (poppler-utils pdftoppm)', async () => {
     mkdirSync(out, { recursive: true })
-    const plate = fixturePlate({ radius: 420, amplitude: 90, lobes: 3 })
+    const plate = buildPlate(plateParamsSchema.parse(PRESETS[0]!.input))
     const bytes = await renderTemplatePdf(plate, {
       paper: 'letter',
       meta: { designName: 'Picture check oak', sizeLabel: '12 in', revision: 2, date: '2025-03-01' },
