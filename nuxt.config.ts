@@ -1,4 +1,6 @@
 // Rootplate: Nuxt 4 with the repository root as the source folder.
+import { fileURLToPath } from 'node:url'
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
@@ -28,5 +30,11 @@ export default defineNuxtConfig({
   },
   nitro: {
     externals: { external: ['paper'] },
+    // The template font travels inside the server build (read with useStorage('assets:fonts')).
+    serverAssets: [{
+      baseName: 'fonts',
+      dir: fileURLToPath(new URL('./node_modules/@fontsource/ibm-plex-sans/files', import.meta.url)),
+      pattern: 'ibm-plex-sans-latin-400-normal.woff',
+    }],
   },
 })

@@ -1,6 +1,6 @@
 // The template's typeface. Callers hand over the font file's bytes (the
 // browser fetches them, the server reads them from disk); only when none are
-// given does the writer fall back to the server-side loader.
+// given does the writer read them itself, under Node only.
 
 /**
  * The WOFF file shipped with `@fontsource/ibm-plex-sans`. Embedded as a subset:
@@ -12,16 +12,23 @@ export const TEMPLATE_FONT_FILE = '@fontsource/ibm-plex-sans/files/ibm-plex-sans
 
 export type FontBytes = Uint8Array
 
-/** Bytes given, or read on the server; in a browser the caller must pass them. */
+/**
+ * Bytes given, or read from node_modules when running under Node. Node's
+ * modules are reached through `process.getBuiltinModule` (Node 20.16+) rather
+ * than an import, so browser bundles of this library carry no Node code.
+ */
 export async function resolveFontBytes(given?: FontBytes): Promise<FontBytes> {
   if (given) return given
-  const runtime = (globalThis as { process?: { versions?: { node?: unknown } } }).process
-  const isNode = typeof runtime?.versions?.node === 'string'
-  if (!isNode) {
-    throw new Error('In the browser pass the template font bytes (options.font); only the server reads them itself.')
+  type NodeProcess = { getBuiltinModule?: (id: string) => unknown; cwd: () => string }
+  const runtime = (globalThis as { process?: NodeProcess }).process
+  if (!runtime?.getBuiltinModule) {
+    throw new Error('Pass the template font bytes (options.font); only Node can read them itself.')
   }
-  const { loadTemplateFontNode } = await import('./fonts-node')
-  return loadTemplateFontNode()
+  const { readFile } = runtime.getBuiltinModule('node:fs/promises') as { readFile: (path: string) => Promise<Uint8Array> }
+  const { createRequire } = runtime.getBuiltinModule('node:module') as { createRequire: (from: string) => { resolve: (id: string) => string } }
+  const file = createRequire(`${runtime.cwd()}/package.json`).resolve(TEMPLATE_FONT_FILE)
+  const bytes = await readFile(file)
+  return new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength)
 }
 
 const sfntCache = new WeakMap<FontBytes, Promise<FontBytes>>()

@@ -18,7 +18,13 @@ const IN = 25.4
 
 /** Three trunks for the show, each with a short history of revisions. */
 export function demoDesigns(): { name: string; sizeLabel: string; revisions: { note: string; by: ShopRole; params: Record<string, unknown> }[] }[] {
-  const small = { tubeDiameter: 10 * IN, casterCount: 3, casterOffset: 6.5 * IN, rotation: 90, lobes: { count: 5, reach: 3 * IN, seed: 7 } }
+  // A small trunk takes smaller casters: 2-1/2 in wheels under 5 in pans.
+  const small = {
+    tubeDiameter: 10 * IN, casterCount: 3, casterOffset: 6.5 * IN, pocketDiameter: 5 * IN, rotation: 90,
+    caster: { wheelDiameter: 2.5 * IN, swivelLead: 1 * IN, topPlateWidth: 2.25 * IN, topPlateLength: 3 * IN, boltSpacingX: 2.25 * IN, boltSpacingY: 1.5 * IN, racewayDiameter: 1.75 * IN },
+    access: { diameter: 1.75 * IN, offset: 2.5 * IN },
+    lobes: { count: 5, reach: 3 * IN, seed: 7 },
+  }
   const medium = { tubeDiameter: 16 * IN, casterCount: 4, casterOffset: 9.5 * IN, rotation: 45, lobes: { count: 6, reach: 5 * IN, seed: 21 } }
   const large = { tubeDiameter: 24 * IN, casterCount: 5, casterOffset: 13.5 * IN, rotation: 18, lobes: { count: 7, reach: 7 * IN, seed: 42 } }
   return [

@@ -1,0 +1,102 @@
+import { z } from 'zod'
+import { buildPlate, plateParamsSchema, type Plate } from '../../geometry'
+import {
+  renderTemplatePdf, renderTubeWrapPdf, renderCutDxf, renderCutSvg, exportFileName, PAPER_NAMES,
+  type PaperName, type FontBytes,
+} from '../../geometry/export'
+
+// Query options of the export routes. Lengths arrive in mm; every bound is a
+// real one (a printer margin over 30 mm or an overlap over 50 mm is a typo).
+const flag = z.enum(['true', 'false', '1', '0']).transform(v => v === 'true' || v === '1')
+const mm = (max: number) => z.coerce.number({ error: 'Must be a number of millimetres' }).min(0, 'Must not be negative').max(max, `Must be at most ${max} mm`)
+const paper = z.enum(PAPER_NAMES as [PaperName, ...PaperName[]], { error: `Paper must be one of: ${PAPER_NAMES.join(', ')}` })
+const units = z.enum(['in', 'mm'], { error: 'Units must be in or mm' })
+
+export const templateQuerySchema = z.object({
+  paper: paper.default('letter'),
+  orientation: z.enum(['auto', 'portrait', 'landscape'], { error: 'Orientation must be auto, portrait or landscape' }).default('auto'),
+  overlap: mm(50).optional(),
+  margin: mm(30).optional(),
+  units: units.default('in'),
+  bushing: mm(60).optional(),
+  bit: mm(50).optional(),
+}).superRefine((q, ctx) => {
+  if ((q.bushing === undefined) !== (q.bit === undefined)) {
+    ctx.addIssue({ code: 'custom', path: [q.bushing === undefined ? 'bushing' : 'bit'], message: 'Give both the bushing and the bit diameter, or neither' })
+  }
+  else if (q.bushing !== undefined && q.bit !== undefined && q.bushing <= q.bit) {
+    ctx.addIssue({ code: 'custom', path: ['bushing'], message: 'The guide bushing must be wider than the bit' })
+  }
+})
+
+export const tubeWrapQuerySchema = z.object({
+  paper: paper.default('letter'),
+  orientation: z.enum(['auto', 'portrait', 'landscape']).default('auto'),
+  overlap: mm(50).optional(),
+  margin: mm(30).optional(),
+  units: units.default('in'),
+  height: mm(600).pipe(z.number().min(25, 'The strip must be at least 25 mm tall')).optional(),
+})
+
+export const cutQuerySchema = z.object({
+  units: units.default('in'),
+  reference: flag.default(true),
+  mirror: flag.default(false),
+})
+
+export interface RevisionForExport {
+  number: number
+  params: unknown
+  designName: string
+  sizeLabel: string | null
+  createdAt: Date
+}
+
+export type PlateResult = { ok: true; plate: Plate } | { ok: false; fields: Record<string, string> }
+
+/** Rebuilds the plate from stored params: the server never trusts a computed plate. */
+export function plateFromRevision(revision: RevisionForExport): PlateResult {
+  const parsed = plateParamsSchema.safeParse(revision.params)
+  if (!parsed.success) {
+    return { ok: false, fields: Object.fromEntries(parsed.error.issues.map(i => [`params.${i.path.join('.')}`, i.message])) }
+  }
+  return { ok: true, plate: buildPlate(parsed.data) }
+}
+
+function meta(revision: RevisionForExport) {
+  return {
+    designName: revision.designName,
+    sizeLabel: revision.sizeLabel ?? undefined,
+    revision: revision.number,
+    date: revision.createdAt.toISOString().slice(0, 10),
+  }
+}
+
+export function fileName(revision: RevisionForExport, ext: string): string {
+  return exportFileName({ designName: revision.designName, sizeLabel: revision.sizeLabel ?? undefined, revision: revision.number }, ext)
+}
+
+export function templatePdf(plate: Plate, revision: RevisionForExport, q: z.output<typeof templateQuerySchema>, font: FontBytes) {
+  return renderTemplatePdf(plate, {
+    paper: q.paper,
+    orientation: q.orientation,
+    overlap: q.overlap,
+    margin: q.margin,
+    units: q.units,
+    bushing: q.bushing !== undefined && q.bit !== undefined ? { bushingDiameter: q.bushing, bitDiameter: q.bit } : undefined,
+    meta: meta(revision),
+    font,
+  })
+}
+
+export function tubeWrapPdf(plate: Plate, revision: RevisionForExport, q: z.output<typeof tubeWrapQuerySchema>, font: FontBytes) {
+  return renderTubeWrapPdf(plate, { paper: q.paper, orientation: q.orientation, overlap: q.overlap, margin: q.margin, units: q.units, height: q.height, meta: meta(revision), font })
+}
+
+export function cutDxf(plate: Plate, q: z.output<typeof cutQuerySchema>): string {
+  return renderCutDxf(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror })
+}
+
+export function cutSvg(plate: Plate, q: z.output<typeof cutQuerySchema>): string {
+  return renderCutSvg(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror })
+}
