@@ -1,0 +1,27 @@
+import type { Preferences } from '~~/shared/utils/preferences'
+import { formatLength as format, parseLength } from '~~/geometry'
+
+interface Me { userId: string; name: string; role: ShopRole; preferences: Preferences }
+
+/** The signed-in person's preferences, with setters that are saved on the server. */
+export function usePreferences() {
+  const { data, refresh } = useFetch<Me>('/api/me', { key: 'me' })
+  const prefs = computed<Preferences>(() => data.value?.preferences ?? readPreferences({}))
+  const units = computed(() => prefs.value.units)
+
+  async function save(patch: Partial<Omit<Preferences, 'export'>> & { export?: Partial<Preferences['export']> }) {
+    const next = await $fetch<Preferences>('/api/me/preferences', { method: 'PATCH', body: patch })
+    if (data.value) data.value = { ...data.value, preferences: next }
+    else await refresh()
+  }
+
+  function formatLength(mm: number): string {
+    return format(mm, units.value, { denominator: prefs.value.fraction })
+  }
+
+  function parse(text: string) {
+    return parseLength(text, { defaultUnit: units.value })
+  }
+
+  return { prefs, units, save, formatLength, parse }
+}

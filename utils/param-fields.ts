@@ -1,0 +1,98 @@
+// The parameter panel's fields: where each value lives in the params, how it
+// is entered, and which group it belongs to. Bounds and messages come from
+// the geometry schema itself.
+export type FieldKind = 'length' | 'count' | 'angle' | 'ratio' | 'toggle' | 'seed'
+
+export interface ParamField {
+  path: string
+  label: string
+  kind: FieldKind
+  hint?: string
+}
+
+export interface ParamGroup {
+  id: string
+  title: string
+  fields: ParamField[]
+}
+
+export const paramGroups: ParamGroup[] = [
+  {
+    id: 'trunk',
+    title: 'Trunk',
+    fields: [
+      { path: 'tubeDiameter', label: 'Tube diameter', kind: 'length', hint: 'Measured outside diameter of the form tube' },
+      { path: 'tubeWall', label: 'Tube wall', kind: 'length' },
+    ],
+  },
+  {
+    id: 'casters',
+    title: 'Casters',
+    fields: [
+      { path: 'casterCount', label: 'Casters', kind: 'count' },
+      { path: 'casterOffset', label: 'Caster offset', kind: 'length', hint: 'Plate centre to pocket centre' },
+      { path: 'rotation', label: 'Rotation', kind: 'angle', hint: 'Angle of the first caster and the index holes' },
+      { path: 'pocketDiameter', label: 'Pocket diameter', kind: 'length' },
+      { path: 'rabbetWidth', label: 'Rabbet width', kind: 'length' },
+      { path: 'rabbetDepth', label: 'Rabbet depth', kind: 'length' },
+      { path: 'panDepth', label: 'Pan depth', kind: 'length' },
+      { path: 'caster.wheelDiameter', label: 'Wheel diameter', kind: 'length' },
+      { path: 'caster.swivelLead', label: 'Swivel lead', kind: 'length' },
+      { path: 'caster.overallHeight', label: 'Caster height', kind: 'length', hint: 'Floor to the top of the mounting plate' },
+      { path: 'caster.topPlateWidth', label: 'Top plate width', kind: 'length' },
+      { path: 'caster.topPlateLength', label: 'Top plate length', kind: 'length' },
+      { path: 'caster.boltSpacingX', label: 'Bolt spacing, long', kind: 'length' },
+      { path: 'caster.boltSpacingY', label: 'Bolt spacing, short', kind: 'length' },
+      { path: 'caster.boltDiameter', label: 'Bolt diameter', kind: 'length' },
+      { path: 'caster.racewayDiameter', label: 'Swivel raceway', kind: 'length' },
+    ],
+  },
+  {
+    id: 'lobes',
+    title: 'Lobes',
+    fields: [
+      { path: 'lobes.count', label: 'Lobes', kind: 'count' },
+      { path: 'lobes.reach', label: 'Reach', kind: 'length', hint: 'How far a root stands out past the valley line' },
+      { path: 'lobes.width', label: 'Width', kind: 'length' },
+      { path: 'lobes.valley', label: 'Valley', kind: 'length', hint: 'Wood between the trunk and the outline between roots' },
+      { path: 'lobes.roundness', label: 'Roundness', kind: 'ratio' },
+      { path: 'lobes.irregularity', label: 'Irregularity', kind: 'ratio' },
+      { path: 'lobes.seed', label: 'Seed', kind: 'seed' },
+      { path: 'lobes.phase', label: 'Phase', kind: 'angle' },
+    ],
+  },
+  {
+    id: 'openings',
+    title: 'Openings',
+    fields: [
+      { path: 'access.enabled', label: 'Access openings', kind: 'toggle' },
+      { path: 'access.diameter', label: 'Opening diameter', kind: 'length' },
+      { path: 'access.offset', label: 'Opening offset', kind: 'length', hint: 'Plate centre to opening centre' },
+      { path: 'access.snapToHoleSaw', label: 'Snap to hole-saw sizes', kind: 'toggle' },
+      { path: 'centreHoleDiameter', label: 'Centre hole', kind: 'length' },
+      { path: 'indexHoleDiameter', label: 'Index holes', kind: 'length' },
+    ],
+  },
+  {
+    id: 'material',
+    title: 'Material',
+    fields: [
+      { path: 'layers', label: 'Layers', kind: 'count' },
+      { path: 'sheetThickness', label: 'Sheet thickness', kind: 'length', hint: 'Measured; "3/4 in" panels are often 23/32' },
+      { path: 'minWood', label: 'Minimum wood', kind: 'length' },
+      { path: 'minFloorGap', label: 'Minimum floor gap', kind: 'length' },
+    ],
+  },
+]
+
+export function getPath(obj: unknown, path: string): unknown {
+  return path.split('.').reduce<unknown>((o, k) => (o && typeof o === 'object' ? (o as Record<string, unknown>)[k] : undefined), obj)
+}
+
+export function setPath(obj: object, path: string, value: unknown): void {
+  const keys = path.split('.')
+  const last = keys.pop()!
+  let target = obj as Record<string, unknown>
+  for (const k of keys) target = target[k] as Record<string, unknown>
+  target[last] = value
+}

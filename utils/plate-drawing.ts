@@ -1,0 +1,151 @@
+// Draws a plate into a paper.js scope. Client only (paper is loaded in the
+// browser after mount). Plate coordinates are mm with y up; paper's project
+// has y down, so every point goes through `pt` (x, -y).
+import type { Plate, Point as PlatePoint } from '~~/geometry'
+
+type Paper = typeof import('paper').default
+type Scope = InstanceType<Paper['PaperScope']>
+
+export const plateColours = {
+  outline: '#1e4b36',
+  fill: '#f3e7cf',
+  trunk: '#c98a2e',
+  pocket: '#23281f',
+  rabbet: '#8d5e1a',
+  access: '#2f7352',
+  mount: '#7c8475',
+  axis: '#6b5b95',
+  notch: '#c98a2e',
+  problem: '#b4452f',
+  compare: '#3f6fb0',
+  grid: '#e4dfd3',
+  gridMajor: '#cfc7b5',
+  handle: '#ffffff',
+  handleStroke: '#1e4b36',
+  handleHot: '#ebc27f',
+  dim: '#5b6355',
+} as const
+
+export interface DrawOptions {
+  /** Screen pixels per mm, to keep marks a constant size on screen. */
+  zoom: number
+  units: 'in' | 'mm'
+  /** Only the outline and holes, in the comparison colour. */
+  ghost?: boolean
+  formatLength: (mm: number) => string
+}
+
+export function pt(scope: Scope, x: number, y: number) {
+  return new scope.Point(x, -y)
+}
+
+function circle(scope: Scope, x: number, y: number, r: number, style: Partial<paper.Style>) {
+  const c = new scope.Path.Circle({ center: pt(scope, x, y), radius: Math.max(r, 0.01), insert: false })
+  Object.assign(c, { strokeScaling: false, ...style })
+  return c
+}
+
+function polyline(scope: Scope, points: PlatePoint[], closed: boolean, style: Partial<paper.Style>) {
+  const p = new scope.Path({ segments: points.map(([x, y]) => pt(scope, x, y)), closed, insert: false })
+  Object.assign(p, { strokeScaling: false, ...style })
+  return p
+}
+
+/** The plate's outline as a smooth paper path from its SVG path data (plate coordinates). */
+export function outlinePath(scope: Scope, plate: Plate) {
+  const path = new scope.CompoundPath({ pathData: plate.outlinePath, insert: false })
+  path.scale(1, -1, new scope.Point(0, 0))
+  return path
+}
+
+export function drawPlate(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions): void {
+  const px = (n: number) => n / o.zoom
+  const add = (item: paper.Item) => layer.addChild(item)
+
+  if (o.ghost) {
+    const ghost = outlinePath(scope, plate)
+    Object.assign(ghost, { strokeColor: plateColours.compare, strokeWidth: 2, dashArray: [8, 5], strokeScaling: false })
+    add(ghost)
+    for (const h of plate.holes) add(circle(scope, h.x, h.y, h.diameter / 2, { strokeColor: plateColours.compare, strokeWidth: 1, dashArray: [4, 3] }))
+    return
+  }
+
+  const outline = outlinePath(scope, plate)
+  Object.assign(outline, { fillColor: plateColours.fill, strokeColor: plateColours.outline, strokeWidth: 2.5, strokeScaling: false })
+  add(outline)
+
+  const { trunk } = plate
+  add(circle(scope, trunk.x, trunk.y, trunk.diameter / 2, { strokeColor: plateColours.trunk, strokeWidth: 2, dashArray: [10, 4] }))
+  add(circle(scope, trunk.x, trunk.y, trunk.innerDiameter / 2, { strokeColor: plateColours.trunk, strokeWidth: 1, dashArray: [3, 4] }))
+
+  for (const r of plate.rabbets) add(circle(scope, r.x, r.y, r.diameter / 2, { strokeColor: plateColours.rabbet, strokeWidth: 1.2, dashArray: [6, 3] }))
+  for (const h of plate.holes) {
+    const colour = h.kind === 'access' ? plateColours.access : plateColours.pocket
+    add(circle(scope, h.x, h.y, h.diameter / 2, { strokeColor: colour, strokeWidth: h.kind === 'pocket' ? 2 : 1.5, fillColor: '#fbfaf6' }))
+    const arm = Math.max(h.diameter / 2 + px(4), px(6))
+    if (h.kind === 'centre' || h.kind === 'index') {
+      add(polyline(scope, [[h.x - arm, h.y], [h.x + arm, h.y]], false, { strokeColor: plateColours.pocket, strokeWidth: 1 }))
+      add(polyline(scope, [[h.x, h.y - arm], [h.x, h.y + arm]], false, { strokeColor: plateColours.pocket, strokeWidth: 1 }))
+    }
+  }
+  // Caster top plates hang below the pan, so they show through the pocket openings.
+  for (const m of plate.casterMounts) {
+    add(polyline(scope, m.corners, true, { strokeColor: plateColours.mount, strokeWidth: 1, dashArray: [4, 2] }))
+    for (const b of m.bolts) add(circle(scope, b.x, b.y, b.diameter / 2, { strokeColor: plateColours.mount, strokeWidth: 1 }))
+  }
+  for (const n of plate.notches) {
+    const r = trunk.diameter / 2
+    const a0 = (n.startAngle * Math.PI) / 180
+    const a1 = (n.endAngle * Math.PI) / 180
+    const mid = (a0 + a1) / 2
+    const arc = new scope.Path.Arc({
+      from: pt(scope, r * Math.cos(a0), r * Math.sin(a0)),
+      through: pt(scope, r * Math.cos(mid), r * Math.sin(mid)),
+      to: pt(scope, r * Math.cos(a1), r * Math.sin(a1)),
+      insert: false,
+    })
+    Object.assign(arc, { strokeColor: plateColours.notch, strokeWidth: 5, strokeScaling: false, opacity: 0.75 })
+    add(arc)
+  }
+  add(polyline(scope, [plate.axis.from, plate.axis.to], false, { strokeColor: plateColours.axis, strokeWidth: 1, dashArray: [12, 4, 2, 4] }))
+  drawDimensions(scope, layer, plate, o)
+}
+
+function drawDimensions(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {
+  const px = (n: number) => n / o.zoom
+  const { minX, minY, maxX, maxY } = plate.metrics.bounds
+  const style = { strokeColor: plateColours.dim, strokeWidth: 1 }
+  const below = minY - px(24)
+  const right = maxX + px(24)
+  layer.addChild(polyline(scope, [[minX, below], [maxX, below]], false, style))
+  layer.addChild(polyline(scope, [[minX, below - px(5)], [minX, below + px(5)]], false, style))
+  layer.addChild(polyline(scope, [[maxX, below - px(5)], [maxX, below + px(5)]], false, style))
+  layer.addChild(polyline(scope, [[right, minY], [right, maxY]], false, style))
+  layer.addChild(polyline(scope, [[right - px(5), minY], [right + px(5), minY]], false, style))
+  layer.addChild(polyline(scope, [[right - px(5), maxY], [right + px(5), maxY]], false, style))
+  const width = new scope.PointText({ point: pt(scope, (minX + maxX) / 2, below - px(16)), content: o.formatLength(maxX - minX), justification: 'center', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
+  const height = new scope.PointText({ point: pt(scope, right - px(8), (minY + maxY) / 2), content: o.formatLength(maxY - minY), justification: 'right', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
+  layer.addChild(width)
+  layer.addChild(height)
+}
+
+/** A light grid in the chosen units: minor lines every inch or 10 mm, major every foot or 100 mm. */
+export function drawGrid(scope: Scope, layer: paper.Layer, units: 'in' | 'mm', zoom: number): void {
+  const bounds = scope.view.bounds
+  const minor = units === 'in' ? 25.4 : 10
+  const major = units === 'in' ? 304.8 : 100
+  const steps = minor * zoom >= 8 ? [minor, major] : [major]
+  for (const step of steps) {
+    const colour = step === major ? plateColours.gridMajor : plateColours.grid
+    const x0 = Math.floor(bounds.left / step) * step
+    const y0 = Math.floor(bounds.top / step) * step
+    for (let x = x0; x <= bounds.right; x += step) {
+      const l = new scope.Path.Line({ from: [x, bounds.top], to: [x, bounds.bottom], strokeColor: colour, strokeWidth: 1, strokeScaling: false, insert: false })
+      layer.addChild(l)
+    }
+    for (let y = y0; y <= bounds.bottom; y += step) {
+      const l = new scope.Path.Line({ from: [bounds.left, y], to: [bounds.right, y], strokeColor: colour, strokeWidth: 1, strokeScaling: false, insert: false })
+      layer.addChild(l)
+    }
+  }
+}
