@@ -42,7 +42,7 @@ export function buildPlate(params: PlateParams, options: BuildOptions = {}): Pla
   const shape = plateOutlineShape(params, features)
   const sampled = sampleOutline(shape, { tolerance })
   const outline = sampled.points
-  const outlinePath = smoothPath(sampled, { tolerance })
+  const outlinePath = smoothPath(sampled, shape, { tolerance })
 
   const lobeTips: LobeTip[] = shape.lobes.map((l) => {
     const radius = shape.radiusAt(l.angle)

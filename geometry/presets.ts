@@ -99,7 +99,7 @@ export function deriveForTube(params: PlateParams, newTubeDiameter: number): Pla
     caster: { ...params.caster },
     access: { ...params.access, offset: clamp(params.access.offset + shift, 0, 1500) },
     tubeDiameter: tube,
-    casterOffset: clamp(Math.max(params.casterOffset + shift, minCasterOffset(params)), 20, 1500),
+    casterOffset: Math.max(clamp(params.casterOffset + shift, 20, 1500), Math.ceil(minCasterOffset(params) * 1000) / 1000),
     lobes: {
       ...lobes,
       reach: clamp(lobes.reach * s, 0, 900),

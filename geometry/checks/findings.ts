@@ -180,7 +180,7 @@ function floorFindings(input: FindingsInput): Finding[] {
 
 function sheetFindings(input: FindingsInput): Finding[] {
   if (input.enclosingRadius * 2 <= SHEET_MM.width) return []
-  if (fitsRectangle(input.outline, SHEET_MM.width, SHEET_MM.length)) return []
+  if (fitsRectangle(input.outline, SHEET_MM.width, SHEET_MM.length, 2 * input.enclosingRadius)) return []
   return [{ code: 'larger-than-sheet', severity: 'warning', message: 'The plate does not fit a 48 x 96 in sheet in any orientation: each layer must be pieced.', field: 'lobes.reach' }]
 }
 

@@ -251,38 +251,78 @@ function gcd(a: number, b: number): number {
 }
 
 /**
- * Whether the points fit a sheet of the given size in some orientation. The
- * hull is turned in half-degree steps and at every hull edge's direction
- * (where the narrowest fits occur); a fit is accepted only when measured.
+ * Least width of a convex polygon over all directions, by rotating calipers:
+ * it is always attained with one hull edge lying flat (Toussaint 1983), so
+ * each edge is tried with its farthest vertex, found by a pointer that only
+ * moves forward. Returns the width and the direction (radians) of that edge.
  */
-export function fitsRectangle(points: readonly Point[], width: number, height: number): boolean {
-  const hull = convexHull(points)
+export function minimumWidth(hull: readonly Point[]): { width: number; angle: number } {
+  const n = hull.length
+  if (n < 3) return { width: 0, angle: 0 }
+  let best = Infinity
+  let angle = 0
+  let k = 1
+  for (let i = 0; i < n; i++) {
+    const a = hull[i]!
+    const b = hull[(i + 1) % n]!
+    const ex = b[0] - a[0]
+    const ey = b[1] - a[1]
+    const len = Math.sqrt(ex * ex + ey * ey)
+    if (len === 0) continue
+    const dist = (p: Point) => Math.abs(ex * (p[1] - a[1]) - ey * (p[0] - a[0])) / len
+    while (dist(hull[(k + 1) % n]!) >= dist(hull[k % n]!) && (k + 1) % n !== i) k++
+    const w = dist(hull[k % n]!)
+    if (w < best) {
+      best = w
+      angle = Math.atan2(ey, ex)
+    }
+  }
+  return { width: best, angle }
+}
+
+function extents(hull: readonly Point[], a: number): [number, number] {
+  const c = Math.cos(a)
+  const s = Math.sin(a)
+  let minU = Infinity
+  let maxU = -Infinity
+  let minV = Infinity
+  let maxV = -Infinity
+  for (const p of hull) {
+    const u = p[0] * c + p[1] * s
+    const v = -p[0] * s + p[1] * c
+    if (u < minU) minU = u
+    if (u > maxU) maxU = u
+    if (v < minV) minV = v
+    if (v > maxV) maxV = v
+  }
+  return [maxU - minU, maxV - minV]
+}
+
+/**
+ * Whether a shape fits a sheet of the given size in some orientation. Two
+ * exact answers settle nearly every plate at once: narrower than the sheet
+ * nowhere means no fit; narrow enough somewhere while no longer anywhere
+ * than the sheet's length (the enclosing circle's diameter bounds every
+ * extent) means a fit. Otherwise orientations are tried in half-degree steps
+ * and at every hull edge's direction; a fit is accepted only when measured.
+ */
+export function fitsRectangle(points: readonly Point[], width: number, height: number, enclosingDiameter?: number): boolean {
+  const hull = simplePolygonHull(points)
   const short = Math.min(width, height)
   const long = Math.max(width, height)
-  const angles: number[] = []
+  const narrowest = minimumWidth(hull)
+  if (narrowest.width > short) return false
+  const diameter = enclosingDiameter ?? 2 * enclosingCircle(hull).radius
+  if (diameter <= long) return true
+  const angles: number[] = [narrowest.angle]
   for (let i = 0; i < 360; i++) angles.push((i * Math.PI) / 360)
   for (let i = 0; i < hull.length; i++) {
-    const [x1, y1] = hull[i]!
-    const [x2, y2] = hull[(i + 1) % hull.length]!
-    angles.push(Math.atan2(y2 - y1, x2 - x1))
+    const p = hull[i]!
+    const q = hull[(i + 1) % hull.length]!
+    angles.push(Math.atan2(q[1] - p[1], q[0] - p[0]))
   }
   for (const a of angles) {
-    const c = Math.cos(a)
-    const s = Math.sin(a)
-    let minU = Infinity
-    let maxU = -Infinity
-    let minV = Infinity
-    let maxV = -Infinity
-    for (const [x, y] of hull) {
-      const u = x * c + y * s
-      const v = -x * s + y * c
-      if (u < minU) minU = u
-      if (u > maxU) maxU = u
-      if (v < minV) minV = v
-      if (v > maxV) maxV = v
-    }
-    const a1 = maxU - minU
-    const a2 = maxV - minV
+    const [a1, a2] = extents(hull, a)
     if (Math.min(a1, a2) <= short && Math.max(a1, a2) <= long) return true
   }
   return false

@@ -6,6 +6,11 @@ import type { Point } from '../types'
 import type { OutlineShape } from './shape'
 
 const TWO_PI = 2 * Math.PI
+/** Predicted sagitta allowed per chord, as a share of the tolerance. */
+const PREDICT_FACTOR = 1
+/** Midpoint deviation at which a chord is halved, as a share of the tolerance. */
+const VERIFY_FACTOR = 0.5
+const MAX_DEPTH = 10
 
 export interface SampleOptions {
   /** Largest distance between the curve and a chord, mm. Default 0.1 (CONTRACTS.md). */
@@ -28,12 +33,16 @@ export interface SampledOutline {
  * The outline as a counter-clockwise polygon. A uniform pass measures the
  * curve's bending by second differences (the sagitta of a chord over a span h
  * is |P''| h^2 / 8, and the second difference is |P''| h^2); each span is then
- * cut into just enough equal pieces to keep the sagitta within a safety factor
- * of the tolerance (half of it, and less where the bending changes fast). This costs one evaluation per output point, where halving
- * a span and testing its midpoint costs two.
+ * cut into enough equal pieces to bring that estimate within the tolerance,
+ * and every piece is verified against the curve itself, because the estimate
+ * is blind to bends narrower than the first pass's spacing. Random plates
+ * (tests/unit/geometry/properties.test.ts) keep their worst chord near
+ * two-thirds of the tolerance.
  */
 export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}): SampledOutline {
-  const tol = (options.tolerance ?? 0.1) * 0.5
+  const tolerance = options.tolerance ?? 0.1
+  const predictTol = tolerance * PREDICT_FACTOR
+  const verifyTol = tolerance * VERIFY_FACTOR
   const n = initialCount(shape, 256)
   const h = TWO_PI / n
   const xs = new Float64Array(n)
@@ -51,20 +60,45 @@ export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}):
   }
   const points: Point[] = []
   const thetas: number[] = []
+
+  // Emits the chord from (ta, a) towards (tb, b) once the curve at a third and
+  // at two thirds of the way lies within the tolerance of it (two probes catch an
+  // S-bend that a midpoint alone would miss); otherwise the chord is split in
+  // three at those probes, so no evaluation is wasted.
+  const refine = (ta: number, a: Point, tb: number, b: Point, depth: number): void => {
+    const t1 = ta + (tb - ta) / 3
+    const t2 = ta + (2 * (tb - ta)) / 3
+    const p1 = shape.pointAt(t1)
+    const p2 = shape.pointAt(t2)
+    const dx = b[0] - a[0]
+    const dy = b[1] - a[1]
+    const len = Math.sqrt(dx * dx + dy * dy)
+    const dev = len > 0
+      ? Math.max(Math.abs(dx * (p1[1] - a[1]) - dy * (p1[0] - a[0])), Math.abs(dx * (p2[1] - a[1]) - dy * (p2[0] - a[0]))) / len
+      : 0
+    if (dev <= verifyTol || depth >= MAX_DEPTH) {
+      points.push(a)
+      thetas.push(ta)
+      return
+    }
+    refine(ta, a, t1, p1, depth + 1)
+    refine(t1, p1, t2, p2, depth + 1)
+    refine(t2, p2, tb, b, depth + 1)
+  }
+
   for (let i = 0; i < n; i++) {
     const next = (i + 1) % n
     const prev = (i + n - 1) % n
-    const hi = Math.max(bend[prev]!, bend[i]!, bend[next]!)
-    const lo = Math.min(bend[prev]!, bend[i]!, bend[next]!)
-    // Where the bending changes fast (a lobe tip, a blend) the estimate is least sure: allow up to double.
-    const sag = (hi / 8) * (hi > 0 ? 2 - lo / hi : 1)
-    const pieces = Math.min(64, Math.max(1, Math.ceil(Math.sqrt(sag / tol))))
-    points.push([xs[i]!, ys[i]!])
-    thetas.push(i * h)
-    for (let k = 1; k < pieces; k++) {
-      const t = (i + k / pieces) * h
-      points.push(shape.pointAt(t))
-      thetas.push(t)
+    const sag = Math.max(bend[prev]!, bend[i]!, bend[next]!) / 8
+    const pieces = Math.min(64, Math.max(1, Math.ceil(Math.sqrt(sag / predictTol))))
+    let ta = i * h
+    let a: Point = [xs[i]!, ys[i]!]
+    for (let k = 1; k <= pieces; k++) {
+      const tb = (i + k / pieces) * h
+      const b: Point = k === pieces ? [xs[next]!, ys[next]!] : shape.pointAt(tb)
+      refine(ta, a, tb, b, 0)
+      ta = tb
+      a = b
     }
   }
   return { points, thetas: Float64Array.from(thetas) }
@@ -84,9 +118,10 @@ function fmt(v: number): string {
  * tangent at both ends (tangents from the neighbouring samples by a
  * second-order difference in the angle), so the path is smooth at every joint.
  * A span is kept only if it passes within half the tolerance of every sample
- * it skips; otherwise it is halved, down to one span per polygon edge.
+ * it skips; otherwise it is halved, down to one span per polygon edge, where
+ * the curve's midpoint is the test and a straight chord the fallback.
  */
-export function smoothPath(sampled: SampledOutline, options: SampleOptions = {}): string {
+export function smoothPath(sampled: SampledOutline, shape: OutlineShape, options: SampleOptions = {}): string {
   const tol = (options.tolerance ?? 0.1) / 2
   const { points, thetas } = sampled
   const n = points.length
@@ -106,7 +141,19 @@ export function smoothPath(sampled: SampledOutline, options: SampleOptions = {})
   }
 
   const parts: string[] = []
-  const span = (i: number, j: number, check: boolean): boolean => {
+  const emit = (c1x: number, c1y: number, c2x: number, c2y: number, b: Point): void => {
+    parts.push(`C${fmt(c1x)} ${fmt(c1y)} ${fmt(c2x)} ${fmt(c2y)} ${fmt(b[0])} ${fmt(b[1])}`)
+  }
+  const within = (a: Point, c1x: number, c1y: number, c2x: number, c2y: number, b: Point, t: number, p: Point): boolean => {
+    const u = 1 - t
+    const bx = u * u * u * a[0] + 3 * u * u * t * c1x + 3 * u * t * t * c2x + t * t * t * b[0]
+    const by = u * u * u * a[1] + 3 * u * u * t * c1y + 3 * u * t * t * c2y + t * t * t * b[1]
+    return Math.hypot(bx - p[0], by - p[1]) <= tol
+  }
+
+  // Tries the Hermite cubic from sample i to sample j against the samples between
+  // them, or, for a single edge, against the curve's own midpoint.
+  const span = (i: number, j: number): boolean => {
     const a = at(i)
     const b = at(j)
     const ia = ((i % n) + n) % n
@@ -116,28 +163,27 @@ export function smoothPath(sampled: SampledOutline, options: SampleOptions = {})
     const c1y = a[1] + dy[ia]! * k
     const c2x = b[0] - dx[ib]! * k
     const c2y = b[1] - dy[ib]! * k
-    if (check) {
-      for (let m = i + 1; m < j; m++) {
-        const t = (theta(m) - theta(i)) / (3 * k)
-        const u = 1 - t
-        const bx = u * u * u * a[0] + 3 * u * u * t * c1x + 3 * u * t * t * c2x + t * t * t * b[0]
-        const by = u * u * u * a[1] + 3 * u * u * t * c1y + 3 * u * t * t * c2y + t * t * t * b[1]
-        const p = at(m)
-        if (Math.hypot(bx - p[0], by - p[1]) > tol) return false
+    if (j - i === 1) {
+      if (!within(a, c1x, c1y, c2x, c2y, b, 0.5, shape.pointAt((theta(i) + theta(j)) / 2))) {
+        // A bend too sharp for the estimated tangents (a needle-thin lobe tip):
+        // the straight chord, itself within the tolerance, drawn as a cubic.
+        emit(a[0] + (b[0] - a[0]) / 3, a[1] + (b[1] - a[1]) / 3, a[0] + (2 * (b[0] - a[0])) / 3, a[1] + (2 * (b[1] - a[1])) / 3, b)
+      } else {
+        emit(c1x, c1y, c2x, c2y, b)
       }
+      return true
     }
-    parts.push(`C${fmt(c1x)} ${fmt(c1y)} ${fmt(c2x)} ${fmt(c2y)} ${fmt(b[0])} ${fmt(b[1])}`)
+    for (let m = i + 1; m < j; m++) {
+      if (!within(a, c1x, c1y, c2x, c2y, b, (theta(m) - theta(i)) / (3 * k), at(m))) return false
+    }
+    emit(c1x, c1y, c2x, c2y, b)
     return true
   }
 
   // Long spans first: the polygon's spacing already follows the bending, and a
   // cubic follows a smooth curve far more closely than a chord does.
   const fit = (i: number, j: number): void => {
-    if (j - i <= 1) {
-      span(i, j, false)
-      return
-    }
-    if (span(i, j, true)) return
+    if (span(i, j)) return
     const m = (i + j) >> 1
     fit(i, m)
     fit(m, j)

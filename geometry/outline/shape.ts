@@ -125,7 +125,9 @@ export function outlineShape(params: PlateParams, clearances: readonly Circle[],
     const halfWidth = Math.min(lobeWidth / (2 * baseRadius), 0.98 * Math.PI)
     lobes.push({ index: k, angle, halfWidth, reach: lobeReach })
   }
-  const active = lobes.filter((l) => l.reach > 0)
+  // Lobes shorter than a micrometre change nothing visible; dropping them keeps
+  // the sampling coarse and keeps denormal numbers (slow on every CPU) out of the sums.
+  const active = lobes.filter((l) => l.reach > 1e-3)
   const lobeAngle = Float64Array.from(active, (l) => l.angle)
   const lobeHalf = Float64Array.from(active, (l) => l.halfWidth)
   const lobeReach = Float64Array.from(active, (l) => l.reach)
@@ -174,6 +176,7 @@ export function outlineShape(params: PlateParams, clearances: readonly Circle[],
       const t = wrapAngle(theta - lobeAngle[k]!) / lobeHalf[k]!
       if (t <= -1 || t >= 1) continue
       const v = lobeReach[k]! * lobeProfile(t)
+      if (v < 1e-9) continue
       hits++
       single = v
       sum += v ** LOBE_NORM

@@ -115,8 +115,8 @@ describe('tube notches', () => {
   function bruteSpan(ro: number, ri: number, cx: number, cy: number, rho: number): number {
     const centre = Math.atan2(cy, cx)
     let widest = 0
-    for (let i = 0; i <= 200; i++) {
-      const s = ri + ((ro - ri) * i) / 200
+    for (let i = 0; i <= 100; i++) {
+      const s = ri + ((ro - ri) * i) / 100
       for (let j = -9000; j <= 9000; j++) {
         const a = centre + (j / 9000) * Math.PI
         if (Math.hypot(s * Math.cos(a) - cx, s * Math.sin(a) - cy) <= rho) widest = Math.max(widest, Math.abs(a - centre))
