@@ -39,8 +39,10 @@ export function readParams(stored: unknown): { params: PlateParams; problem: str
 export const useEditorStore = defineStore('editor', () => {
   const designId = ref<string | null>(null)
   const base = ref<BaseRevision | null>(null)
-  const params = ref<PlateParams>(defaultParams())
-  const saved = ref<PlateParams>(defaultParams())
+  // Whole params objects are swapped, never changed in place: shallow refs keep
+  // buildPlate off Vue's proxies, which cost more than the geometry itself.
+  const params = shallowRef<PlateParams>(defaultParams())
+  const saved = shallowRef<PlateParams>(defaultParams())
   const past = shallowRef<PlateParams[]>([])
   const future = shallowRef<PlateParams[]>([])
   const selection = ref<Selection | null>(null)
