@@ -155,6 +155,29 @@ describe('POST /api/designs/:id/revisions', () => {
     }
   })
 
+  it('validates params with the plate schema: 422 naming the field, and nothing stored', async () => {
+    const before = await latest(designId)
+    for (const params of [{ casterCount: 12 }, { tubeDiameter: -5 }, { lobes: { count: 2.5 } }, { minWood: 'lots' }]) {
+      const res = await api(`/api/designs/${designId}/revisions`, { method: 'POST', cookie: cookies.designer, body: { params, note: 'bad', basedOn: before.number } })
+      expect(res.status, JSON.stringify(params)).toBe(422)
+      const key = `params.${Object.keys(params)[0]}`
+      expect(Object.keys(res.body.data.fields).some(k => k.startsWith(key)), JSON.stringify(res.body.data.fields)).toBe(true)
+    }
+    expect((await latest(designId)).number).toBe(before.number)
+  })
+
+  it('stores the parsed params: defaults filled in, unknown keys dropped', async () => {
+    const before = await latest(designId)
+    const res = await api(`/api/designs/${designId}/revisions`, { method: 'POST', cookie: cookies.designer, body: { params: { tubeDiameter: 444.5, colour: 'green' }, note: 'partial', basedOn: before.number } })
+    expect(res.status).toBe(201)
+    const stored = (await latest(designId)).params
+    expect(stored.tubeDiameter).toBe(444.5)
+    expect(stored).not.toHaveProperty('colour')
+    expect(stored.casterCount).toBeGreaterThanOrEqual(3)
+    expect(stored.lobes).toHaveProperty('count')
+    expect(stored.lobes.overrides).toEqual([])
+  })
+
   it('a lead of another shop gets 404 for this design', async () => {
     const res = await api(`/api/designs/${designId}/revisions`, { method: 'POST', cookie: otherLead, body: { params: {}, note: 'x', basedOn: 1 } })
     expect(res.status).toBe(404)
