@@ -26,7 +26,7 @@ function length(min: number, max: number, fallback: number) {
 const lobeOverrideSchema = z.object({
   /** Which lobe (0-based, counter-clockwise from the clocking axis). */
   index: z.number().int().min(0).max(23),
-  /** Degrees added to the lobe's evenly spaced angle, so rotating the plate carries it along. */
+  /** Degrees added to the lobe's evenly spaced angle (in place of its irregular offset), so rotating the plate carries it along. */
   angle: z.number().finite().min(-180).max(180).optional(),
   /** Replaces the lobe's reach (mm beyond the valley line); no irregularity is added on top. */
   reach: z.number().finite().min(0).max(900).optional(),
@@ -43,7 +43,7 @@ const lobesSchema = z.object({
   width: length(10, 1200, 110),
   /** 0 gives tapering, pointed-looking roots; 1 gives blunt, flat-ended ones. */
   roundness: z.number().finite().min(0).max(1).default(0.5),
-  /** 0 is perfectly regular; 1 varies each lobe's reach by up to +-50 %, width by +-40 %, angle by a third of the spacing, and wobbles the valley line. */
+  /** 0 is perfectly regular; 1 varies each lobe's reach by up to +-50 %, its width by +-40 % and its angle by up to a sixth of the spacing either way, and wobbles the valley line in and out by up to 40 % of the valley. */
   irregularity: z.number().finite().min(0).max(1).default(0.35),
   /** Seed of the irregularity: the same seed always gives the same plate. */
   seed: z.number().int().min(0).max(0xffffffff).default(7),

@@ -77,7 +77,7 @@ describe('buildPlate over random accepted parameters', () => {
         expect(plate.metrics.area).toBeGreaterThan(0)
         for (const f of plate.findings) expect(['error', 'warning']).toContain(f.severity)
       }),
-      { numRuns: 1500 },
+      { numRuns: 1000 },
     )
   }, LIMIT)
 
