@@ -83,6 +83,14 @@ export const useEditorStore = defineStore('editor', () => {
     saveError.value = null
   }
 
+  /** Forgets the design, so the next visit loads it afresh. */
+  function close() {
+    designId.value = null
+    base.value = null
+    conflict.value = null
+    selection.value = null
+  }
+
   function record(previous: PlateParams) {
     past.value = [...past.value.slice(-(HISTORY_LIMIT - 1)), previous]
     future.value = []
@@ -189,6 +197,6 @@ export const useEditorStore = defineStore('editor', () => {
   return {
     designId, base, params, saved, selection, saving, saveError, conflict, loadProblem,
     plate, issues, dirty, canUndo, canRedo, errorCount,
-    load, update, replace, beginDrag, dragTo, endDrag, undo, redo, select, save, saveOnTop, reloadLatest,
+    load, close, update, replace, beginDrag, dragTo, endDrag, undo, redo, select, save, saveOnTop, reloadLatest,
   }
 })
