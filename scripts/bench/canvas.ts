@@ -2,22 +2,10 @@
 // seconds in headless Chromium. Goal: 95th percentile frame at most 17 ms
 // (one 60 Hz frame is 16.7 ms). Needs a build (`npx nuxt build`) and the demo
 // database; `npm run bench` prepares both.
-import { spawn } from 'node:child_process'
-import { createServer } from 'node:net'
 import { launchChromium } from '../../tests/e2e/support/browser'
+import { startBuiltServer } from '../../tests/e2e/support/server'
 
 const GOAL_P95 = 17
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer()
-    srv.once('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address()
-      srv.close(() => (a && typeof a === 'object' ? resolve(a.port) : reject(new Error('no port'))))
-    })
-  })
-}
 
 function quantile(sorted: number[], q: number): number {
   const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil(q * sorted.length) - 1))
@@ -25,15 +13,8 @@ function quantile(sorted: number[], q: number): number {
 }
 
 async function main() {
-  const port = await freePort()
-  const server = spawn(process.execPath, ['.output/server/index.mjs'], { env: { ...process.env, PORT: String(port), HOST: '127.0.0.1' }, stdio: 'ignore' })
-  const base = `http://127.0.0.1:${port}`
+  const { baseUrl: base, stop } = await startBuiltServer({})
   try {
-    for (let i = 0; i < 150; i++) {
-      const up = await fetch(`${base}/api/designs`).then(r => r.status === 401, () => false)
-      if (up) break
-      await new Promise(r => setTimeout(r, 200))
-    }
     const browser = await launchChromium()
     const page = await browser.newPage({ viewport: { width: 1280, height: 800 } })
     await page.goto(`${base}/login`)
@@ -79,7 +60,7 @@ async function main() {
     console.log(`p95 / goal (${GOAL_P95} ms): ${(p95 / GOAL_P95).toFixed(2)}  ${p95 <= GOAL_P95 ? 'within goal' : 'OVER goal'}`)
   }
   finally {
-    server.kill('SIGTERM')
+    await stop()
   }
 }
 
