@@ -19,15 +19,16 @@ export function counterClockwise(points: Point[]): Point[] {
 }
 
 /**
- * Grow a closed polygon outward by `distance` by moving every vertex along the
- * mean of its two edge normals, mitred so straight runs keep their true
- * offset. Meant for the smooth, star-shaped outlines of plates and a bushing
- * offset of a few millimetres: where a tight concave bend would fold the
- * offset line back on itself, the folded vertices are dropped.
+ * Grow a closed polygon outward by `distance` (shrink it for a negative one)
+ * by moving every vertex along the mean of its two edge normals, mitred so
+ * straight runs keep their true offset. Meant for the smooth, star-shaped
+ * outlines of plates and a bushing offset of a few millimetres: where a tight
+ * bend would fold the offset line back on itself (a concave bend when
+ * growing, a convex one when shrinking), the folded vertices are dropped.
  */
 export function offsetPolygon(polygon: Point[], distance: number): Point[] {
-  if (!Number.isFinite(distance) || distance < 0) {
-    throw new RangeError(`Offset distance must be zero or more, got ${distance}.`)
+  if (!Number.isFinite(distance)) {
+    throw new RangeError(`Offset distance must be a number, got ${distance}.`)
   }
   const pts = counterClockwise(polygon)
   const n = pts.length

@@ -26,7 +26,12 @@ export interface TemplateOptions {
   margin?: number
   /** Units of the written sizes. Default 'in'. */
   units?: ExportUnits
-  /** Adds the router-pattern line (bushing - bit) / 2 outside the outline. Default none. */
+  /**
+   * Adds the pattern lines for routing with a guide bushing: the bushing rides
+   * the pattern and the bit cuts (bushing - bit) / 2 beyond it, so the pattern
+   * for the outside profile lies that far inside the cut line, and the pattern
+   * for each routed opening that far outside its circle. Default none.
+   */
   bushing?: BushingOptions
   /** Default: design name `Plate`, no size, no revision, today's date. */
   meta?: TemplateMeta
@@ -167,7 +172,10 @@ function drawPlateBody(ops: Ops, plate: Plate, units: ExportUnits, routerLine: P
   if (routerLine) {
     ops.style(S.router).polygon(routerLine).stroke()
     const [tx, ty] = topmost(routerLine)
-    ops.text(`router pattern line, ${len(offset)} outside the cut line`, tx, ty + 2, SMALL, {
+    for (const h of plate.holes) {
+      if (h.kind === 'pocket' || h.kind === 'access') ops.style(S.router).circle(h.x, h.y, h.diameter / 2 + offset).stroke()
+    }
+    ops.text(`router pattern line, ${len(offset)} inside the cut line`, tx, ty - 4, SMALL, {
       align: 'center',
       colour: COLOURS.router,
     })
@@ -187,7 +195,7 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
   const units = options.units ?? 'in'
   assertExportUnits(units)
   const offset = options.bushing ? bushingOffset(options.bushing) : 0
-  const routerLine = options.bushing ? offsetPolygon(plate.outline, offset) : null
+  const routerLine = options.bushing ? offsetPolygon(plate.outline, -offset) : null
   const tiling = tilePlate(plate, {
     paper: options.paper,
     ...(options.orientation ? { orientation: options.orientation } : {}),
@@ -208,7 +216,7 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
   if (routerLine) legend.push({ label: 'router pattern line (guide bushing)', style: S.router })
   const notes = routerLine
     ? [
-        `Router pattern: cut the pattern on the long-dashed line, ${formatShopLength(offset, units)} outside the plate ((bushing - bit) / 2), then follow it with the guide bushing.`,
+        `Router pattern for a guide bushing: make the pattern to the long-dashed lines, ${formatShopLength(offset, units)} ((bushing - bit) / 2) inside the outside cut line and outside each routed opening; the bushing rides the pattern and the bit cuts on the cut lines.`,
       ]
     : []
   const drawing: TiledDrawing = {

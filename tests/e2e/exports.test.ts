@@ -161,15 +161,16 @@ describe('the template PDF read back with pdf-lib', () => {
     }
   })
 
-  it('with a guide bushing the pattern line is tiled too: the sheet count of the outline and its offset line', async () => {
-    // A 60 mm bushing and a 1/4 in bit (the largest the route accepts, chosen so the offset line
-    // needs more sheets): offset (60 - 6.35) / 2 = 26.825 mm (router pattern practice).
+  it('with a guide bushing the pattern line lies inside the cut line, so the sheets are those of the outline', async () => {
+    // A 60 mm bushing and a 1/4 in bit: offset (60 - 6.35) / 2 = 26.825 mm. The bushing rides the
+    // pattern and the bit cuts that far beyond it, so an outside pattern is smaller than the plate
+    // (router pattern practice, common practice).
     const res = await download(`/api/revisions/${revisionId}/template.pdf?paper=letter&bushing=60&bit=6.35`, cookies.builder)
     expect(res.status).toBe(200)
     const doc = await PDFDocument.load(res.bytes)
-    const withLine = tilePlate(plate, { paper: 'letter', extraOutlines: [offsetPolygon(plate.outline, 26.825)] })
-    expect(withLine.printed).toBeGreaterThan(tilePlate(plate, { paper: 'letter' }).printed)
-    expect(doc.getPageCount()).toBe(withLine.printed + 1)
+    const inset = offsetPolygon(plate.outline, -26.825)
+    expect(Math.max(...inset.map(([x]) => x))).toBeLessThan(Math.max(...plate.outline.map(([x]) => x)) - 26)
+    expect(doc.getPageCount()).toBe(tilePlate(plate, { paper: 'letter' }).printed + 1)
   })
 
   it('the tube wrap on A3 has A3 pages, 841.89x1190.55 pt (ISO 216: 297x420 mm)', async () => {

@@ -21,6 +21,21 @@ describe('offsetPolygon', () => {
     for (const [x, y] of grown) expect(Math.hypot(x, y)).toBeCloseTo(305, 2)
   })
 
+  it('shrinks a circle to the circle of radius r - d for a negative distance', () => {
+    const circle = fixturePlate({ radius: 300, amplitude: 0 }).outline
+    for (const [x, y] of offsetPolygon(circle, -5)) expect(Math.hypot(x, y)).toBeCloseTo(295, 2)
+  })
+
+  it('shrinks a lobed outline by the area clipper2-ts gives for the same negative offset', () => {
+    const lobed = fixturePlate({ radius: 400, amplitude: 80, lobes: 5 }).outline
+    for (const d of [1.5875, 6.35]) {
+      const ours = Math.abs(shoelace(offsetPolygon(lobed, -d)))
+      const theirs = inflatePathsD([lobed.map(([x, y]) => ({ x, y }))], -d, JoinType.Round, EndType.Polygon)
+      const reference = Math.abs(theirs.reduce((s, p) => s + areaD(p), 0))
+      expect(Math.abs(ours - reference) / reference).toBeLessThan(2e-5)
+    }
+  })
+
   it('matches clipper2-ts round-join offset area on a lobed outline', () => {
     const lobed = fixturePlate({ radius: 400, amplitude: 80, lobes: 5 }).outline
     for (const d of [1.5875, 6.35]) {
