@@ -1,7 +1,8 @@
 // A paper.js view on a canvas: loaded in the browser only, with zoom about
 // the cursor, pan, fit-to-view and resize. The drawing itself is the caller's.
-type Paper = typeof import('paper').default
-export type PaperScopeInstance = InstanceType<Paper['PaperScope']>
+import type { Ref, ShallowRef } from 'vue'
+
+export type PaperScopeInstance = paper.PaperScope
 
 export interface PaperView {
   scope: ShallowRef<PaperScopeInstance | null>
@@ -36,8 +37,8 @@ export function usePaperView(canvas: Ref<HTMLCanvasElement | null>, box: Ref<HTM
       return
     }
     try {
-      const { default: paper } = await import('paper/dist/paper-core.js')
-      const s = new paper.PaperScope()
+      const mod = await import('paper/dist/paper-core.js') as unknown as { default: paper.PaperScope }
+      const s = new mod.default.PaperScope()
       s.setup(el)
       s.settings.insertItems = false
       scope.value = s

@@ -1,5 +1,5 @@
 import type { Preferences } from '~~/shared/utils/preferences'
-import { formatLength as format, parseLength } from '~~/geometry'
+import { formatLength as format, parseLength } from '~~/geometry/core'
 
 interface Me { userId: string; name: string; role: ShopRole; preferences: Preferences }
 

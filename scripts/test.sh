@@ -14,8 +14,9 @@ trap stop_db EXIT
 # The tests use their own database beside it (<name>_test), dropped and made anew.
 export DATABASE_URL=${DATABASE_URL:-$(bash scripts/db.sh url)}
 
-echo "test: type-checking the geometry library"
+echo "test: type-checking the geometry library (strict) and the app"
 npx tsc -p geometry/tsconfig.json
+npx nuxt typecheck
 
 ensure_build
 

@@ -1,5 +1,5 @@
 import { defineStore } from 'pinia'
-import { buildPlate, defaultParams, paramIssues, plateParamsSchema, type Plate, type PlateParams, type ParamIssue } from '~~/geometry'
+import { buildPlate, defaultParams, paramIssues, plateParamsSchema, type Plate, type PlateParams, type ParamIssue } from '~~/geometry/core'
 
 /** What is selected on the canvas or in the findings list. */
 export type Selection =

@@ -1,10 +1,11 @@
 // Draws a plate into a paper.js scope. Client only (paper is loaded in the
 // browser after mount). Plate coordinates are mm with y up; paper's project
 // has y down, so every point goes through `pt` (x, -y).
-import type { Plate, Point as PlatePoint } from '~~/geometry'
+import type { Plate, Point as PlatePoint } from '~~/geometry/core'
 
-type Paper = typeof import('paper').default
-type Scope = InstanceType<Paper['PaperScope']>
+type Scope = paper.PaperScope
+/** Style properties set on an item (paper's own Style type wants Color objects; it accepts CSS strings). */
+type StyleProps = Record<string, unknown>
 
 export const plateColours = {
   outline: '#1e4b36',
@@ -39,13 +40,13 @@ export function pt(scope: Scope, x: number, y: number) {
   return new scope.Point(x, -y)
 }
 
-function circle(scope: Scope, x: number, y: number, r: number, style: Partial<paper.Style>) {
+function circle(scope: Scope, x: number, y: number, r: number, style: StyleProps) {
   const c = new scope.Path.Circle({ center: pt(scope, x, y), radius: Math.max(r, 0.01), insert: false })
   Object.assign(c, { strokeScaling: false, ...style })
   return c
 }
 
-function polyline(scope: Scope, points: PlatePoint[], closed: boolean, style: Partial<paper.Style>) {
+function polyline(scope: Scope, points: PlatePoint[], closed: boolean, style: StyleProps) {
   const p = new scope.Path({ segments: points.map(([x, y]) => pt(scope, x, y)), closed, insert: false })
   Object.assign(p, { strokeScaling: false, ...style })
   return p

@@ -1,6 +1,6 @@
 // What dragging or nudging a canvas handle does to the params. Pure: takes a
 // draft of the params and the plate built from them, changes the draft.
-import type { Plate, PlateParams } from '~~/geometry'
+import type { Plate, PlateParams } from '~~/geometry/core'
 
 export type HandleKind = 'lobe' | 'pocket'
 export type HandleTarget = { kind: HandleKind; index: number }

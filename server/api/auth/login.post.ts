@@ -16,7 +16,7 @@ export default defineEventHandler(async (event) => {
   const result = await signIn(useDb(), hasher, { email, password, address })
   if (!result.ok) {
     if (result.reason === 'limited') {
-      setResponseHeader(event, 'Retry-After', String(result.retryAfterMinutes * 60))
+      setResponseHeader(event, 'Retry-After', result.retryAfterMinutes * 60)
       throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: `Too many failed sign-ins. Wait ${result.retryAfterMinutes} minutes, then try again.` })
     }
     if (result.reason === 'no-shop') {

@@ -124,7 +124,7 @@ describe('outline perimeter against the arc length of the curve', () => {
 
   it('agrees with the perimeter of the ring clipper2-ts rebuilds from the outline', () => {
     const plate = buildPlate(plateParamsSchema.parse({}))
-    const rebuilt = Clipper.unionD([toPathD(plate.outline)], FillRule.NonZero, 6)
+    const rebuilt = Clipper.unionD([toPathD(plate.outline)], [], FillRule.NonZero, 6)
     expect(rebuilt).toHaveLength(1)
     const ring = rebuilt[0]!
     let length = 0

@@ -1,0 +1,17 @@
+// The geometry core: parameters, the plate, units, presets. No PDF or DXF
+// writers, so browser bundles that import only this stay light.
+export { plateParamsSchema, paramIssues, defaultParams, minCasterOffset } from './params'
+export type { PlateParams, PlateParamsInput, LobeOverride, ParamIssue } from './params'
+export type * from './types'
+export { buildPlate } from './plate'
+export type { BuildOptions } from './plate'
+export { MM_PER_INCH, MM_PER_FOOT, inchesToMm, mmToInches, parseLength, formatInches, formatMillimetres, formatLength } from './units'
+export type { LengthUnit, ParseResult, ParseOptions, InchFormatOptions, MmFormatOptions } from './units'
+export { PRESETS, presetParams, deriveForTube, TUBE_DIAMETER_RANGE } from './presets'
+export type { Preset } from './presets'
+export { HOLE_SAW_INCHES, snapToHoleSaw } from './features/holes'
+export { floorStack } from './checks/floor'
+export type { FloorStack } from './checks/floor'
+export { SHEET_MM } from './checks/findings'
+export { PLYWOOD_DENSITY } from './metrics/metrics'
+export { lensArea, unionArea } from './math/circles'
