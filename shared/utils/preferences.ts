@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { PAPER_NAMES, type PaperName } from '../../geometry/export/tiling'
 
 // What Rootplate remembers for each person: how lengths are shown and the
 // last export settings. Every field has a default, so `{}` is valid.
@@ -6,7 +7,7 @@ export const displayUnits = ['in', 'mm'] as const
 export type DisplayUnits = (typeof displayUnits)[number]
 
 export const exportPrefsSchema = z.object({
-  paper: z.string().max(20).default('letter'),
+  paper: z.enum(PAPER_NAMES as [PaperName, ...PaperName[]], { error: `Paper must be one of: ${PAPER_NAMES.join(', ')}` }).default('letter'),
   orientation: z.enum(['auto', 'portrait', 'landscape']).default('auto'),
   units: z.enum(displayUnits).default('in'),
   /** mm */
