@@ -13,6 +13,7 @@ export default defineConfig({
           name: 'unit',
           include: ['tests/unit/**/*.test.ts'],
           environment: 'node',
+          setupFiles: ['tests/unit/fast-check.setup.ts'],
         },
       },
       await defineVitestProject({

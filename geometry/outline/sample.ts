@@ -27,6 +27,8 @@ export interface SampledOutline {
   points: Point[]
   /** The angle (radians, 0 to 2 pi) of each point. */
   thetas: Float64Array
+  /** The curve a third of the way from each point to the next (x, y pairs): already evaluated while sampling, reused to check the path. */
+  probes: Float64Array
 }
 
 /**
@@ -60,6 +62,7 @@ export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}):
   }
   const points: Point[] = []
   const thetas: number[] = []
+  const probes: number[] = []
 
   // Emits the chord from (ta, a) towards (tb, b) once the curve at a third and
   // at two thirds of the way lies within the tolerance of it (two probes catch an
@@ -79,6 +82,7 @@ export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}):
     if (dev <= verifyTol || depth >= MAX_DEPTH) {
       points.push(a)
       thetas.push(ta)
+      probes.push(p1[0], p1[1])
       return
     }
     refine(ta, a, t1, p1, depth + 1)
@@ -101,7 +105,7 @@ export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}):
       a = b
     }
   }
-  return { points, thetas: Float64Array.from(thetas) }
+  return { points, thetas: Float64Array.from(thetas), probes: Float64Array.from(probes) }
 }
 
 export function samplePolygon(shape: OutlineShape, options: SampleOptions = {}): Point[] {
@@ -118,12 +122,13 @@ function fmt(v: number): string {
  * tangent at both ends (tangents from the neighbouring samples by a
  * second-order difference in the angle), so the path is smooth at every joint.
  * A span is kept only if it passes within half the tolerance of every sample
- * it skips; otherwise it is halved, down to one span per polygon edge, where
- * the curve's midpoint is the test and a straight chord the fallback.
+ * it skips and of the true curve between samples; otherwise it is
+ * halved, down to one span per polygon edge, where the curve's midpoint is the
+ * test and a straight chord the fallback.
  */
 export function smoothPath(sampled: SampledOutline, shape: OutlineShape, options: SampleOptions = {}): string {
   const tol = (options.tolerance ?? 0.1) / 2
-  const { points, thetas } = sampled
+  const { points, thetas, probes } = sampled
   const n = points.length
   const theta = (i: number) => thetas[((i % n) + n) % n]! + TWO_PI * Math.floor(i / n)
   const at = (i: number) => points[((i % n) + n) % n]!
@@ -173,8 +178,13 @@ export function smoothPath(sampled: SampledOutline, shape: OutlineShape, options
       }
       return true
     }
-    for (let m = i + 1; m < j; m++) {
-      if (!within(a, c1x, c1y, c2x, c2y, b, (theta(m) - theta(i)) / (3 * k), at(m))) return false
+    for (let m = i + 1; m <= j; m++) {
+      if (m < j && !within(a, c1x, c1y, c2x, c2y, b, (theta(m) - theta(i)) / (3 * k), at(m))) return false
+      // Between two samples the cubic could bulge away unseen: test the true curve there too,
+      // at the point the sampler evaluated a third of the way along that chord.
+      const q = ((m - 1) % n + n) % n
+      const third = theta(m - 1) + (theta(m) - theta(m - 1)) / 3
+      if (!within(a, c1x, c1y, c2x, c2y, b, (third - theta(i)) / (3 * k), [probes[2 * q]!, probes[2 * q + 1]!])) return false
     }
     emit(c1x, c1y, c2x, c2y, b)
     return true
