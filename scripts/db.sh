@@ -22,8 +22,9 @@ note() { echo "db: $*" >&2; }
 
 is_root() { [ "$(id -u)" = 0 ]; }
 
+# From /, since the postgres user may not be allowed into the current folder.
 as_pg() {
-  if is_root; then runuser -u postgres -- "$@"; else "$@"; fi
+  if is_root; then (cd / && runuser -u postgres -- "$@"); else "$@"; fi
 }
 
 find_bin() {
