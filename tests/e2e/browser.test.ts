@@ -36,6 +36,30 @@ describe('in Chromium', () => {
     await page.close()
   })
 
+  it('the designer starts a new design from a starting shape on a measured tube', async () => {
+    const base = inject('baseUrl')
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } })
+    await page.goto(`${base}/login`)
+    await page.getByLabel('E-mail').fill('designer@rootplate.test')
+    await page.getByLabel('Password').fill('rootplate-demo')
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.waitForURL(`${base}/`)
+    await page.getByTestId('new-design').click()
+    await page.getByLabel('Name').fill('Willow stump')
+    await page.getByLabel('Starting shape').selectOption({ index: 1 })
+    const tube = page.getByLabel(/Measured tube diameter/)
+    await tube.fill('a big one')
+    await page.getByRole('button', { name: 'Create design' }).click()
+    await expect(page.getByText(/Cannot read "a big one"/).isVisible()).resolves.toBe(true)
+    await tube.fill('14-1/2"')
+    await page.getByRole('button', { name: 'Create design' }).click()
+    await page.waitForURL(/\/designs\/[0-9a-f-]{36}$/)
+    await expect(page.getByTestId('design-name').textContent()).resolves.toBe('Willow stump')
+    // 14-1/2 in = 368.3 mm (1 in = 25.4 mm, NIST SP 811), shown back in shop notation.
+    await expect.poll(() => page.getByRole('textbox', { name: 'Tube diameter', exact: true }).inputValue()).toBe('14-1/2"')
+    await page.close()
+  })
+
   it('a wrong password shows a clear message on the form', async () => {
     const page = await browser.newPage()
     await page.goto(`${inject('baseUrl')}/login`)
