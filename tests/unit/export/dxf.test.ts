@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest'
 import type { Plate, Point } from '../../../geometry/types'
 import { renderCutDxf } from '../../../geometry/export/dxf'
 import { LAYER_DRILL, LAYER_INSIDE, LAYER_OUTSIDE, LAYER_REFERENCE, rabbetLayerName } from '../../../geometry/export/cut-layers'
-import { fixturePlate, shoelace } from './fixture'
+import { fixturePlate, shoelace, distanceToPolygon } from './fixture'
 
 const IN = 25.4 // mm per inch, exact (NIST SP 811)
 
@@ -24,19 +24,6 @@ function outlineOf(dxf: IDxf): ILwpolylineEntity {
 
 function vertices(e: ILwpolylineEntity): Point[] {
   return e.vertices.map((v) => [v.x, v.y] as Point)
-}
-
-function distanceToPolygon(p: Point, poly: Point[]): number {
-  let best = Infinity
-  for (let i = 0; i < poly.length; i++) {
-    const a = poly[i]!
-    const b = poly[(i + 1) % poly.length]!
-    const dx = b[0] - a[0]
-    const dy = b[1] - a[1]
-    const t = Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / (dx * dx + dy * dy || 1)))
-    best = Math.min(best, Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy))
-  }
-  return best
 }
 
 function perimeter(poly: Point[]): number {

@@ -35,6 +35,20 @@ export function shoelace(points: Point[]): number {
   return a / 2
 }
 
+/** Shortest distance from a point to a closed polygon's edges. */
+export function distanceToPolygon(p: Point, poly: Point[]): number {
+  let best = Infinity
+  for (let i = 0; i < poly.length; i++) {
+    const a = poly[i]!
+    const b = poly[(i + 1) % poly.length]!
+    const dx = b[0] - a[0]
+    const dy = b[1] - a[1]
+    const t = Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / (dx * dx + dy * dy || 1)))
+    best = Math.min(best, Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy))
+  }
+  return best
+}
+
 /** Four cubic quarter arcs, the usual kappa = 4/3 (sqrt 2 - 1). */
 function cubicCirclePath(r: number): string {
   const k = (4 / 3) * (Math.SQRT2 - 1) * r

@@ -18,7 +18,7 @@ import {
 import { loadTemplateFontNode } from '../../../geometry/export/fonts-node'
 import { flattenPath } from '../../../geometry/export/polyline'
 import type { Point } from '../../../geometry/types'
-import { shoelace } from './fixture'
+import { shoelace, distanceToPolygon } from './fixture'
 
 const plates = PRESETS.map((p) => ({ id: p.id, plate: buildPlate(plateParamsSchema.parse(p.input)) }))
 let font: Uint8Array
@@ -28,19 +28,6 @@ beforeAll(async () => {
 
 function perimeter(poly: Point[]): number {
   return poly.reduce((s, p, i) => s + Math.hypot(poly[(i + 1) % poly.length]![0] - p[0], poly[(i + 1) % poly.length]![1] - p[1]), 0)
-}
-
-function distanceToPolygon(p: Point, poly: Point[]): number {
-  let best = Infinity
-  for (let i = 0; i < poly.length; i++) {
-    const a = poly[i]!
-    const b = poly[(i + 1) % poly.length]!
-    const dx = b[0] - a[0]
-    const dy = b[1] - a[1]
-    const t = Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / (dx * dx + dy * dy || 1)))
-    best = Math.min(best, Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy))
-  }
-  return best
 }
 
 describe.each(plates)('$id', ({ plate }) => {
