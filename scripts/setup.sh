@@ -39,9 +39,18 @@ ensure_chromium() {
     DEBIAN_FRONTEND=noninteractive timeout 900 apt-get install -y -qq --no-install-recommends chromium >/dev/null 2>&1 \
       || { apt-get update -qq && DEBIAN_FRONTEND=noninteractive timeout 900 apt-get install -y -qq --no-install-recommends chromium >/dev/null; }
   fi
-  if ! command -v pdftoppm >/dev/null 2>&1 && [ "$(id -u)" = 0 ]; then
-    DEBIAN_FRONTEND=noninteractive timeout 600 apt-get install -y -qq --no-install-recommends poppler-utils >/dev/null 2>&1 || true
-  fi
+}
+
+# The template tests render pages with pdftoppm to look at them; they never skip, so it must be here.
+ensure_poppler() {
+  command -v pdftoppm >/dev/null 2>&1 && return 0
+  [ "$(id -u)" = 0 ] || { echo "setup: pdftoppm is missing; as root: apt-get install poppler-utils" >&2; exit 1; }
+  echo "setup: installing Debian's poppler-utils (pdftoppm) for the template tests (once)..."
+  # A fresh machine often has no package lists yet: read them and try again before giving up.
+  DEBIAN_FRONTEND=noninteractive timeout 600 apt-get install -y -qq --no-install-recommends poppler-utils >/dev/null 2>&1 \
+    || { apt-get update -qq && DEBIAN_FRONTEND=noninteractive timeout 600 apt-get install -y -qq --no-install-recommends poppler-utils >/dev/null; } \
+    || true
+  command -v pdftoppm >/dev/null 2>&1 || { echo "setup: could not install poppler-utils (pdftoppm); the template tests need it: apt-get install poppler-utils" >&2; exit 1; }
 }
 
 # Builds when there is no build or any source is newer than it.

@@ -6,6 +6,7 @@ source "$(dirname "$0")/setup.sh"
 
 ensure_modules
 ensure_chromium
+ensure_poppler
 ensure_session_secret
 db_state=$(ensure_database)
 stop_db() { if [ "$db_state" = started ]; then bash scripts/db.sh stop || true; fi; }
