@@ -5,7 +5,8 @@ interface Me { userId: string; name: string; role: ShopRole; preferences: Prefer
 
 /** The signed-in person's preferences, with setters that are saved on the server. */
 export function usePreferences() {
-  const { data, refresh } = useFetch<Me>('/api/me', { key: 'me' })
+  // The page and its panels each ask; 'defer' shares the request in flight instead of cancelling it.
+  const { data, refresh } = useFetch<Me>('/api/me', { key: 'me', dedupe: 'defer' })
   const prefs = computed<Preferences>(() => data.value?.preferences ?? readPreferences({}))
   const units = computed(() => prefs.value.units)
 
