@@ -1,7 +1,7 @@
 import { mkdirSync } from 'node:fs'
-import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { afterAll, afterEach, beforeAll, describe, expect, it, inject } from 'vitest'
 import type { Browser } from 'playwright-core'
-import { launchChromium } from './support/browser'
+import { launchChromium, takePageProblems, watchPage } from './support/browser'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -11,11 +11,13 @@ beforeAll(async () => {
   browser = await launchChromium()
 })
 afterAll(() => browser?.close())
+// Any console error, uncaught exception or failed request fails the test that caused it.
+afterEach(() => { expect(takePageProblems()).toEqual([]) })
 
 describe('in Chromium', () => {
   it('the designer signs in through the form and opens a design', async () => {
     const base = inject('baseUrl')
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } })
+    const page = watchPage(await browser.newPage({ viewport: { width: 1280, height: 800 } }))
     await page.goto(`${base}/`)
     await page.waitForURL(/\/login/)
     await page.getByLabel('E-mail').fill('designer@rootplate.test')
@@ -38,7 +40,7 @@ describe('in Chromium', () => {
 
   it('the designer starts a new design from a starting shape on a measured tube', async () => {
     const base = inject('baseUrl')
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } })
+    const page = watchPage(await browser.newPage({ viewport: { width: 1280, height: 800 } }))
     await page.goto(`${base}/login`)
     await page.getByLabel('E-mail').fill('designer@rootplate.test')
     await page.getByLabel('Password').fill('rootplate-demo')
@@ -61,7 +63,7 @@ describe('in Chromium', () => {
   })
 
   it('a wrong password shows a clear message on the form', async () => {
-    const page = await browser.newPage()
+    const page = watchPage(await browser.newPage(), [/answer 401: POST .*\/api\/auth\/login/, /status of 401/])
     await page.goto(`${inject('baseUrl')}/login`)
     await page.getByLabel('E-mail').fill('viewer@rootplate.test')
     await page.getByLabel('Password').fill('not the password')
@@ -71,7 +73,7 @@ describe('in Chromium', () => {
   })
 
   it('a viewer is not offered the new-design button', async () => {
-    const page = await browser.newPage()
+    const page = watchPage(await browser.newPage())
     await page.goto(`${inject('baseUrl')}/login`)
     await page.getByLabel('E-mail').fill('viewer@rootplate.test')
     await page.getByLabel('Password').fill('rootplate-demo')
