@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it, inject } from 'vitest'
 import { api, demo, signIn, type DemoRole } from './support/api'
-import { OTHER_LEAD } from './support/fixtures'
+import { LIMIT_USER, OTHER_LEAD, OTHER_SHOW } from './support/fixtures'
 
 // Every core route (CONTRACTS.md) for every role, without a session, and across two shops.
 const roles = Object.keys(demo) as DemoRole[]
@@ -10,12 +10,20 @@ let otherLead = ''
 let designId = ''
 let revisionId = ''
 
+// This file saves revisions, so it works on a design of its own (three
+// revisions), never on the shared demo designs.
+const DESIGN = 'Routes test elm'
+
 beforeAll(async () => {
   for (const r of roles) cookies[r] = await signIn(demo[r])
   otherLead = await signIn(OTHER_LEAD.email, OTHER_LEAD.password)
-  const list = await api('/api/designs', { cookie: cookies.lead })
-  const oak = list.body.find((d: { name: string }) => d.name === 'Hollow oak')
-  designId = oak.id
+  const created = await api('/api/designs', { method: 'POST', cookie: cookies.lead, body: { name: DESIGN, sizeLabel: 'Medium', params: {} } })
+  expect(created.status).toBe(201)
+  designId = created.body.id
+  for (const basedOn of [1, 2]) {
+    const res = await api(`/api/designs/${designId}/revisions`, { method: 'POST', cookie: cookies.lead, body: { params: { tubeDiameter: 300 + basedOn }, note: `setup ${basedOn}`, basedOn } })
+    expect(res.status).toBe(201)
+  }
   const detail = await api(`/api/designs/${designId}`, { cookie: cookies.lead })
   revisionId = detail.body.latest.id
 })
@@ -56,11 +64,12 @@ describe('GET /api/designs/:id and its revisions', () => {
   it.each(roles)('a %s sees the design, its latest params and every revision newest first', async (role) => {
     const res = await api(`/api/designs/${designId}`, { cookie: cookies[role] })
     expect(res.status).toBe(200)
-    expect(res.body.name).toBe('Hollow oak')
+    expect(res.body.name).toBe(DESIGN)
     expect(typeof res.body.latest.params).toBe('object')
     const revs = await api(`/api/designs/${designId}/revisions`, { cookie: cookies[role] })
     expect(revs.status).toBe(200)
     const numbers = revs.body.map((r: { number: number }) => r.number)
+    expect(numbers.length).toBeGreaterThanOrEqual(3)
     expect(numbers[0]).toBe(res.body.latest.number)
     expect([...numbers].sort((a: number, b: number) => b - a)).toEqual(numbers)
     const one = await api(`/api/revisions/${revisionId}`, { cookie: cookies[role] })
@@ -97,6 +106,30 @@ describe('POST /api/designs', () => {
     const before = (await api('/api/designs', { cookie: cookies.lead })).body.length
     const res = await api('/api/designs', { method: 'POST', cookie: cookies[role], body: { name: 'Forbidden', params: {} } })
     expect(res.status).toBe(403)
+    expect((await api('/api/designs', { cookie: cookies.lead })).body.length).toBe(before)
+  })
+
+  // Limits: a name up to 120 characters and a size label up to 40, after trimming (our own bounds, server/api/designs/index.post.ts).
+  it('takes a name of 120 characters and a size label of 40, and refuses one more of each with a field message, storing nothing', async () => {
+    const name = `Limit ${'n'.repeat(114)}`
+    const label = 'L'.repeat(40)
+    expect(name).toHaveLength(120)
+    const ok = await api('/api/designs', { method: 'POST', cookie: cookies.designer, body: { name: `  ${name}  `, sizeLabel: label, params: {} } })
+    expect(ok.status).toBe(201)
+    const stored = await api(`/api/designs/${ok.body.id}`, { cookie: cookies.viewer })
+    expect(stored.body.name).toBe(name)
+    expect(stored.body.sizeLabel).toBe(label)
+
+    const before = (await api('/api/designs', { cookie: cookies.lead })).body.length
+    const longName = await api('/api/designs', { method: 'POST', cookie: cookies.designer, body: { name: `${name}x`, params: {} } })
+    expect(longName.status).toBe(422)
+    expect(longName.body.data.fields.name).toMatch(/120 characters/)
+    const longLabel = await api('/api/designs', { method: 'POST', cookie: cookies.designer, body: { name: 'Label test', sizeLabel: `${label}x`, params: {} } })
+    expect(longLabel.status).toBe(422)
+    expect(longLabel.body.data.fields.sizeLabel).toMatch(/40 characters/)
+    const wrongType = await api('/api/designs', { method: 'POST', cookie: cookies.designer, body: { name: 42, sizeLabel: ['x'], params: {} } })
+    expect(wrongType.status).toBe(422)
+    expect(Object.keys(wrongType.body.data.fields)).toEqual(expect.arrayContaining(['name', 'sizeLabel']))
     expect((await api('/api/designs', { cookie: cookies.lead })).body.length).toBe(before)
   })
 
@@ -140,6 +173,17 @@ describe('POST /api/designs/:id/revisions', () => {
     const ahead = await api(`/api/designs/${designId}/revisions`, { method: 'POST', cookie: cookies.designer, body: { params: before.params, note: 'from the future', basedOn: before.number + 5 } })
     expect(ahead.status).toBe(409)
     expect((await latest(designId)).number).toBe(before.number)
+  })
+
+  it('takes a note of 500 characters after trimming, and refuses 501 (our own bound)', async () => {
+    const before = await latest(designId)
+    const res = await api(`/api/designs/${designId}/revisions`, { method: 'POST', cookie: cookies.designer, body: { params: before.params, note: ` ${'n'.repeat(500)} `, basedOn: before.number } })
+    expect(res.status).toBe(201)
+    expect(res.body.note).toHaveLength(500)
+    const long = await api(`/api/designs/${designId}/revisions`, { method: 'POST', cookie: cookies.designer, body: { params: before.params, note: 'n'.repeat(501), basedOn: before.number + 1 } })
+    expect(long.status).toBe(422)
+    expect(long.body.data.fields.note).toMatch(/500 characters/)
+    expect((await latest(designId)).number).toBe(before.number + 1)
   })
 
   it('answers 422 for a missing or non-integer basedOn, params that are not an object, or an over-long note', async () => {
@@ -189,6 +233,25 @@ describe('shop routes', () => {
     const res = await api('/api/shows', { cookie: cookies[role] })
     expect(res.status).toBe(200)
     expect(res.body.map((s: { name: string }) => s.name)).toEqual(['Beneath the Rowan Wood'])
+  })
+
+  it('GET /api/shows: the other shop sees only its own show, and no shop sees the other\'s', async () => {
+    const other = await api('/api/shows', { cookie: otherLead })
+    expect(other.status).toBe(200)
+    expect(other.body.map((s: { name: string }) => s.name)).toEqual([OTHER_SHOW])
+    const ours = await api('/api/shows', { cookie: cookies.viewer })
+    expect(JSON.stringify(ours.body)).not.toContain(OTHER_SHOW)
+    expect(JSON.stringify(other.body)).not.toContain('Rowan')
+  })
+
+  it('GET /api/shop/members: each lead sees exactly its own crew, no one of the other shop', async () => {
+    const other = await api('/api/shop/members', { cookie: otherLead })
+    expect(other.status).toBe(200)
+    const emails = other.body.map((m: { email: string }) => m.email)
+    expect(emails).toEqual(expect.arrayContaining([OTHER_LEAD.email, LIMIT_USER.email]))
+    for (const e of Object.values(demo)) expect(emails).not.toContain(e)
+    const ours = await api('/api/shop/members', { cookie: cookies.lead })
+    expect(JSON.stringify(ours.body)).not.toContain('harbour.test')
   })
 
   it.each(roles)('GET /api/shop/members: only a lead sees the crew (%s)', async (role) => {

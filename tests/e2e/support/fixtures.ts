@@ -1,12 +1,14 @@
 import postgres from 'postgres'
 import { createDatabase } from '../../../server/utils/db'
-import { memberships, shops, users } from '../../../server/database/schema'
+import { memberships, shops, shows, users } from '../../../server/database/schema'
 import { createDesign } from '../../../server/services/designs'
 import { plateDefaults } from './plate'
 
 export const OTHER_LEAD = { email: 'other-lead@harbour.test', password: 'harbour-test-pass', name: 'Casey Harbour' }
 /** An account the sign-in limit test may lock without harming other tests. */
 export const LIMIT_USER = { email: 'limit@harbour.test', password: 'harbour-test-pass', name: 'Robin Limit' }
+/** The second shop's one show (invented), to prove shows stay inside their shop. */
+export const OTHER_SHOW = 'Tides of Harbour Lane'
 
 /** A database URL with another database name. */
 export function withDatabase(url: string, name: string): string {
@@ -49,8 +51,30 @@ export async function seedOtherShop(url: string, hash: (p: string) => Promise<st
       { userId: user.id, shopId: shop.id, role: 'lead' },
       { userId: limited.id, shopId: shop.id, role: 'viewer' },
     ])
+    await db.insert(shows).values({ shopId: shop.id, name: OTHER_SHOW, venue: 'Harbour Lane hall' })
     const created = await createDesign(db, { userId: user.id, shopId: shop.id }, { name: 'Harbour piling', sizeLabel: '12 in tube', params: plateDefaults() })
     return { designId: created.id, revisionId: created.revision.id }
+  }
+  finally {
+    await db.$client.end()
+  }
+}
+
+/**
+ * A member of its own for a test that changes what belongs to a person (its
+ * preferences), so no other test sees the change. Returns the e-mail and password.
+ */
+export async function createOwnMember(url: string, hash: (p: string) => Promise<string>, shopName: string, role: 'lead' | 'designer' | 'builder' | 'viewer'): Promise<{ email: string; password: string }> {
+  const db = createDatabase(url)
+  try {
+    const shop = await db.query.shops.findFirst({ where: (t, { eq }) => eq(t.name, shopName) })
+    if (!shop) throw new Error(`no shop named ${shopName}`)
+    const email = `own-${crypto.randomUUID().slice(0, 8)}@harbour.test`
+    const password = 'own-member-pass'
+    const [user] = await db.insert(users).values({ email, name: 'Own Member', passwordHash: await hash(password) }).returning()
+    if (!user) throw new Error('fixture insert failed')
+    await db.insert(memberships).values({ userId: user.id, shopId: shop.id, role })
+    return { email, password }
   }
   finally {
     await db.$client.end()
