@@ -1,6 +1,13 @@
-// The exporters on plates from the geometry core (buildPlate), not hand-built fixtures.
+// The exporters on plates from the geometry core (buildPlate), not hand-built
+// fixtures. Each file is read back by an independent reader (dxf-parser,
+// happy-dom's XML parser, pdf-lib) and compared with the plate it was written
+// from, measured by independent means: a polygon engine (polygon-clipping),
+// the cubic Bezier formula, the presets' own typed numbers, and the tiling
+// arithmetic done by hand with the paper sizes of ISO 216.
 import DxfParser, { type ICircleEntity, type ILwpolylineEntity } from 'dxf-parser'
+import { Window } from 'happy-dom'
 import { PDFDocument } from 'pdf-lib'
+import polygonClipping from 'polygon-clipping'
 import { beforeAll, describe, expect, it } from 'vitest'
 // Through the library's front door, as the server routes will call it (CONTRACTS.md names).
 import {
@@ -10,7 +17,6 @@ import {
   renderCutDxf,
   renderCutSvg,
   renderTemplatePdf,
-  planTemplate,
   tubeWrapLayout,
   LAYER_INSIDE,
   LAYER_OUTSIDE,
@@ -20,7 +26,7 @@ import { flattenPath } from '../../../geometry/export/polyline'
 import type { Point } from '../../../geometry/types'
 import { shoelace, distanceToPolygon } from './fixture'
 
-const plates = PRESETS.map((p) => ({ id: p.id, plate: buildPlate(plateParamsSchema.parse(p.input)) }))
+const plates = PRESETS.map((p) => ({ id: p.id, input: p.input, plate: buildPlate(plateParamsSchema.parse(p.input)) }))
 let font: Uint8Array
 beforeAll(async () => {
   font = await loadTemplateFontNode()
@@ -30,38 +36,104 @@ function perimeter(poly: Point[]): number {
   return poly.reduce((s, p, i) => s + Math.hypot(poly[(i + 1) % poly.length]![0] - p[0], poly[(i + 1) % poly.length]![1] - p[1]), 0)
 }
 
-describe.each(plates)('$id', ({ plate }) => {
-  it('DXF (read back by dxf-parser) keeps the outline area within the chord tolerance and every round hole', () => {
+/** A circle as a 1024-gon (regular polygon area n R^2 sin(2 pi / n) / 2: 6e-6 short of pi R^2). */
+function ring(x: number, y: number, r: number, n = 1024): [number, number][] {
+  return Array.from({ length: n }, (_, i) => [x + r * Math.cos((2 * Math.PI * i) / n), y + r * Math.sin((2 * Math.PI * i) / n)] as [number, number])
+}
+
+/** Area of a polygon-clipping result by the shoelace formula: outer rings less their holes. */
+function multiArea(mp: [number, number][][][]): number {
+  let area = 0
+  for (const polygon of mp) polygon.forEach((r, i) => { area += (i === 0 ? 1 : -1) * Math.abs(shoelace(r.slice(0, -1))) })
+  return area
+}
+
+/**
+ * Dense points on an SVG path of absolute M, L, C and Z commands, each cubic
+ * sampled by the Bernstein form B(t) = (1-t)^3 P0 + 3(1-t)^2 t P1 + 3(1-t) t^2 P2 + t^3 P3.
+ */
+function samplePath(d: string, perCurve = 64): Point[] {
+  const tokens = d.match(/[MLCZmlcz]|-?\d*\.?\d+(?:e[-+]?\d+)?/g) ?? []
+  const out: Point[] = []
+  let i = 0
+  let cmd = ''
+  let cur: Point = [0, 0]
+  const n = () => Number(tokens[i++])
+  while (i < tokens.length) {
+    if (/[A-Za-z]/.test(tokens[i]!)) cmd = tokens[i++]!
+    if (cmd === 'Z' || cmd === 'z') continue
+    if (cmd === 'M' || cmd === 'L') {
+      cur = [n(), n()]
+      out.push(cur)
+    }
+    else if (cmd === 'C') {
+      const p1: Point = [n(), n()]
+      const p2: Point = [n(), n()]
+      const p3: Point = [n(), n()]
+      for (let k = 1; k <= perCurve; k++) {
+        const t = k / perCurve
+        const u = 1 - t
+        const b = [u * u * u, 3 * u * u * t, 3 * u * t * t, t * t * t] as const
+        out.push([b[0] * cur[0] + b[1] * p1[0] + b[2] * p2[0] + b[3] * p3[0], b[0] * cur[1] + b[1] * p1[1] + b[2] * p2[1] + b[3] * p3[1]])
+      }
+      cur = p3
+    }
+    else throw new Error(`path command ${cmd} not read by this test`)
+  }
+  return out
+}
+
+describe.each(plates)('$id', ({ input, plate }) => {
+  it('DXF (read back by dxf-parser) keeps the outline within the chord tolerance, and its holes are whole, apart and inside (polygon-clipping)', () => {
     const dxf = new DxfParser().parseSync(renderCutDxf(plate, { units: 'mm' }))!
     const outline = dxf.entities.filter((e) => e.layer === LAYER_OUTSIDE) as ILwpolylineEntity[]
     expect(outline).toHaveLength(1)
     expect(outline[0]!.shape).toBe(true)
     const pts = outline[0]!.vertices.map((v) => [v.x, v.y] as Point)
     expect(Math.abs(shoelace(pts) - shoelace(plate.outline))).toBeLessThanOrEqual(perimeter(plate.outline) * 0.1)
-    // Outline less through-holes is the core's own area figure (index holes are drilled, and counted too).
+    // Every cut hole (index holes are drilled, on their own layer) comes back where the plate has it.
     const circles = dxf.entities.filter((e) => e.layer === LAYER_INSIDE) as ICircleEntity[]
-    expect(circles).toHaveLength(plate.holes.filter((h) => h.kind !== 'index').length)
-    const holesArea = plate.holes.reduce((s, h) => s + (Math.PI * h.diameter ** 2) / 4, 0)
-    expect(Math.abs(shoelace(pts) - holesArea - plate.metrics.area) / plate.metrics.area).toBeLessThan(5e-3)
+    const cut = plate.holes.filter((h) => h.kind !== 'index')
+    expect(circles).toHaveLength(cut.length)
+    for (const h of cut) {
+      expect(circles.some((c) => Math.hypot(c.center.x - h.x, c.center.y - h.y) < 1e-3 && Math.abs(2 * c.radius - h.diameter) < 1e-3)).toBe(true)
+    }
+    // The net area of the file measured two ways must agree: the DXF outline less each circle
+    // taken alone, and the boolean difference of the same shapes by polygon-clipping. They differ
+    // when holes overlap each other or cross the edge, which a sound plate never has.
+    const loose = Math.abs(shoelace(pts)) - circles.reduce((s, c) => s + Math.PI * c.radius ** 2, 0)
+    const boolean = multiArea(polygonClipping.difference([pts.map(([x, y]) => [x, y] as [number, number])], ...circles.map((c) => [ring(c.center.x, c.center.y, c.radius)])))
+    expect(Math.abs(boolean - loose) / loose).toBeLessThan(1e-4)
+    // The core's own net area figure agrees with the independent engine.
+    expect(Math.abs(boolean - plate.metrics.area) / plate.metrics.area).toBeLessThan(5e-3)
   })
 
-  it('reads the core outline path and flattens it close to the outline polygon', () => {
+  it('the outline path, sampled by the Bezier formula, lies within 0.1 mm of the outline polygon, and its flattening within 0.05 mm of the curve', () => {
+    const curve = samplePath(plate.outlinePath)
+    expect(curve.length).toBeGreaterThan(50)
+    // The polygon is within 0.1 mm of the curve (CONTRACTS.md chord error), both ways.
+    const every = (n: number) => (_: unknown, i: number) => i % n === 0
+    expect(Math.max(...plate.outline.filter(every(5)).map((p) => distanceToPolygon(p, curve)))).toBeLessThanOrEqual(0.1)
+    expect(Math.max(...curve.filter(every(5)).map((p) => distanceToPolygon(p, plate.outline)))).toBeLessThanOrEqual(0.1)
     const flat = flattenPath(plate.outlinePath, 0.05)
     expect(flat).not.toBeNull()
-    // Both are within 0.1 mm of the same curve (the core's contract), so within 0.15 mm of each other.
-    const worst = Math.max(...plate.outline.filter((_, i) => i % 7 === 0).map((p) => distanceToPolygon(p, flat!)))
-    expect(worst).toBeLessThanOrEqual(0.15)
+    expect(Math.max(...flat!.filter(every(3)).map((p) => distanceToPolygon(p, curve)))).toBeLessThanOrEqual(0.05 + 1e-6)
   })
 
-  it('SVG carries the same layers', () => {
+  it('SVG (read back by an XML parser) is drawn at real size in inches: the outline encloses the same area', () => {
     const svg = renderCutSvg(plate, { units: 'in' })
-    expect(svg).toContain(`<g id="${LAYER_OUTSIDE}"`)
-    expect(svg).toMatch(/width="[\d.]+in"/)
+    const doc = new new Window().DOMParser().parseFromString(svg, 'image/svg+xml')
+    const root = doc.querySelector('svg')!
+    expect(root.getAttribute('width')).toMatch(/^[\d.]+in$/)
+    const polygon = doc.querySelector(`g[id="${LAYER_OUTSIDE}"] polygon`)!
+    const pts = polygon.getAttribute('points')!.trim().split(/\s+/).map((p) => p.split(',').map(Number) as Point)
+    // 1 in = 25.4 mm (NIST SP 811), so an area in square inches is mm2 / 645.16.
+    expect(Math.abs(shoelace(pts)) * 645.16 / Math.abs(shoelace(plate.outline))).toBeCloseTo(1, 3)
   })
 
-  it('tube wrap notches sit inside the strip', () => {
+  it('tube wrap: one turn of the typed tube diameter (pi d), the notches inside the strip', () => {
     const layout = tubeWrapLayout(plate)
-    expect(layout.circumference).toBeCloseTo(Math.PI * plate.trunk.diameter, 9)
+    expect(layout.circumference).toBeCloseTo(Math.PI * input.tubeDiameter!, 6)
     for (const n of layout.notches) for (const [a, b] of n.spans) {
       expect(a).toBeGreaterThanOrEqual(0)
       expect(b).toBeLessThanOrEqual(layout.circumference + 1e-9)
@@ -70,10 +142,51 @@ describe.each(plates)('$id', ({ plate }) => {
 })
 
 describe('template of a real plate', () => {
-  it('has a cover and one page per printed sheet of its tiling', async () => {
-    const { plate } = plates[0]!
-    const { tiling } = planTemplate(plate, { paper: 'a4' })
-    const doc = await PDFDocument.load(await renderTemplatePdf(plate, { paper: 'a4', font, units: 'mm' }))
-    expect(doc.getPageCount()).toBe(tiling.printed + 1)
+  /**
+   * Sheets printed by hand for portrait A4 (210 x 297 mm, ISO 216) with a 1/4 in
+   * margin and a 1/2 in overlap: the drawing (the outline plus 4 mm of clear
+   * space) needs n = ceil((extent - overlap) / (printable - overlap)) sheets
+   * along each side, the grid is centred on it, and a sheet the outline does
+   * not reach (by polygon-clipping) is left out.
+   */
+  function printedByHand(outline: Point[]): number {
+    const margin = 6.35
+    const overlap = 12.7
+    const pad = 4
+    const xs = outline.map((p) => p[0])
+    const ys = outline.map((p) => p[1])
+    const minX = Math.min(...xs) - pad
+    const maxX = Math.max(...xs) + pad
+    const minY = Math.min(...ys) - pad
+    const maxY = Math.max(...ys) + pad
+    const pw = 210 - 2 * margin
+    const ph = 297 - 2 * margin
+    const cols = Math.ceil((maxX - minX - overlap) / (pw - overlap))
+    const rows = Math.ceil((maxY - minY - overlap) / (ph - overlap))
+    const left = (minX + maxX) / 2 - (cols * (pw - overlap) + overlap) / 2
+    const top = (minY + maxY) / 2 + (rows * (ph - overlap) + overlap) / 2
+    const shape = [outline.map(([x, y]) => [x, y] as [number, number])]
+    let printed = 0
+    for (let r = 0; r < rows; r++) {
+      for (let c = 0; c < cols; c++) {
+        const x0 = left + c * (pw - overlap)
+        const y1 = top - r * (ph - overlap)
+        const cell: [number, number][] = [[x0, y1 - ph], [x0 + pw, y1 - ph], [x0 + pw, y1], [x0, y1]]
+        if (multiArea(polygonClipping.intersection(shape, [cell])) > 0) printed++
+      }
+    }
+    return printed
+  }
+
+  it.each(plates.map(({ id, plate }) => ({ id, plate })))('$id: a cover and one page per sheet the plate reaches', async ({ plate }) => {
+    const expected = printedByHand(plate.outline)
+    expect(expected).toBeGreaterThan(1)
+    const doc = await PDFDocument.load(await renderTemplatePdf(plate, { paper: 'a4', orientation: 'portrait', font, units: 'mm' }))
+    expect(doc.getPageCount()).toBe(expected + 1)
+    // Every sheet is A4 portrait, 595.28 x 841.89 pt (ISO 216; 1 pt = 1/72 in).
+    for (const page of doc.getPages().slice(1)) {
+      expect(page.getWidth()).toBeCloseTo(595.28, 1)
+      expect(page.getHeight()).toBeCloseTo(841.89, 1)
+    }
   })
 })
