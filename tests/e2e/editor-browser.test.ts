@@ -36,6 +36,8 @@ async function signInAndOpen(email: string): Promise<Page> {
   await page.getByLabel('Password').fill('rootplate-demo')
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForURL(`${base}/`)
+  // Leaving the home page while it still loads would abort its requests (and rightly fail the watcher).
+  await page.waitForLoadState('networkidle')
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('plate-canvas').waitFor()
   await page.getByText('Preparing the drawing…').waitFor({ state: 'detached' })

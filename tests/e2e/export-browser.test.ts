@@ -1,11 +1,14 @@
 // The export panel in Chromium: the builder (who may print but not edit)
 // changes the paper, sees the sheet count follow, and downloads a cut file.
+// Its design, its builder and their shop are its own.
 import { mkdirSync, readFileSync } from 'node:fs'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, inject } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import DxfParser from 'dxf-parser'
 import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { api, freshAddress, signIn } from './support/api'
+import { createOwnShop } from './support/fixtures'
+import { hasher } from '../../scripts/seed'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -18,11 +21,16 @@ let designId = ''
 // plate, no lobes, on a 16 in tube, about 530 mm across.
 const params = { tubeDiameter: 406.4, casterCount: 3, casterOffset: 170, rotation: 0, lobes: { count: 0, irregularity: 0, valley: 40 } }
 
+// People of their own too, in a shop of their own: the tests change the builder's remembered settings.
+let builder = { email: '', password: '' }
+
 beforeAll(async () => {
   mkdirSync(shots, { recursive: true })
   browser = await launchChromium()
-  cookie = await signIn('builder@rootplate.test')
-  const designer = await signIn('designer@rootplate.test')
+  const own = await createOwnShop(inject('databaseUrl'), p => hasher.make(p), ['designer', 'builder'])
+  builder = own.builder
+  cookie = await signIn(builder.email, builder.password)
+  const designer = await signIn(own.designer.email, own.designer.password)
   const created = await api('/api/designs', { method: 'POST', cookie: designer, body: { name: 'Export test column', sizeLabel: '16 in tube', params } })
   expect(created.status).toBe(201)
   designId = created.body.id
@@ -46,10 +54,12 @@ async function openDesign(page: Page, allow: RegExp[] = []): Promise<void> {
   watchPage(page, allow)
   const base = inject('baseUrl')
   await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill('builder@rootplate.test')
-  await page.getByLabel('Password').fill('rootplate-demo')
+  await page.getByLabel('E-mail').fill(builder.email)
+  await page.getByLabel('Password').fill(builder.password)
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForURL(`${base}/`)
+  // Leaving the home page while it still loads would abort its requests (and rightly fail the watcher).
+  await page.waitForLoadState('networkidle')
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('export-panel').waitFor()
 }

@@ -80,3 +80,30 @@ export async function createOwnMember(url: string, hash: (p: string) => Promise<
     await db.$client.end()
   }
 }
+
+/**
+ * A shop of its own with one member per role asked for, for a test that
+ * changes what belongs to people (their preferences) and must not touch the
+ * demo shop's crew. Returns the members' sign-ins by role.
+ */
+export async function createOwnShop<R extends 'lead' | 'designer' | 'builder' | 'viewer'>(url: string, hash: (p: string) => Promise<string>, roles: R[]): Promise<Record<R, { email: string; password: string }>> {
+  const db = createDatabase(url)
+  const tag = crypto.randomUUID().slice(0, 8)
+  try {
+    const [shop] = await db.insert(shops).values({ name: `Own shop ${tag}` }).returning()
+    if (!shop) throw new Error('fixture insert failed')
+    const out = {} as Record<R, { email: string; password: string }>
+    for (const role of roles) {
+      const email = `${role}-${tag}@own-shop.test`
+      const password = 'own-member-pass'
+      const [user] = await db.insert(users).values({ email, name: `Own ${role}`, passwordHash: await hash(password) }).returning()
+      if (!user) throw new Error('fixture insert failed')
+      await db.insert(memberships).values({ userId: user.id, shopId: shop.id, role })
+      out[role] = { email, password }
+    }
+    return out
+  }
+  finally {
+    await db.$client.end()
+  }
+}
