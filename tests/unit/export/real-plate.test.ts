@@ -113,12 +113,14 @@ describe.each(plates)('$id', ({ input, plate }) => {
     expect(curve.length).toBeGreaterThan(50)
     // The polygon is within 0.1 mm of the curve (CONTRACTS.md chord error), both ways.
     const every = (n: number) => (_: unknown, i: number) => i % n === 0
-    // (24 samples a curve: the chords between them sag far less than 0.01 mm on these bends.)
+    // (24 samples a curve: the chords between them sag about 0.01 mm at most on these bends.)
     expect(Math.max(...plate.outline.filter(every(5)).map((p) => distanceToPolygon(p, curve)))).toBeLessThanOrEqual(0.1)
     expect(Math.max(...curve.filter(every(7)).map((p) => distanceToPolygon(p, plate.outline)))).toBeLessThanOrEqual(0.1)
     const flat = flattenPath(plate.outlinePath, 0.05)
     expect(flat).not.toBeNull()
-    expect(Math.max(...flat!.filter(every(3)).map((p) => distanceToPolygon(p, curve)))).toBeLessThanOrEqual(0.05 + 0.01)
+    // Its vertices lie on the curve, so the measure is the other way: how far the curve strays from its chords.
+    expect(Math.max(...flat!.filter(every(3)).map((p) => distanceToPolygon(p, curve)))).toBeLessThanOrEqual(0.02)
+    expect(Math.max(...curve.filter(every(3)).map((p) => distanceToPolygon(p, flat!)))).toBeLessThanOrEqual(0.05 + 0.005)
   }, 30_000)
 
   it('SVG (read back by an XML parser) is drawn at real size in inches: the outline encloses the same area', () => {
