@@ -39,8 +39,12 @@ describe.each(plates)('$id', ({ plate }) => {
     const pts = outline[0]!.vertices.map((v) => [v.x, v.y] as Point)
     expect(Math.abs(shoelace(pts) - shoelace(plate.outline))).toBeLessThanOrEqual(perimeter(plate.outline) * 0.1)
     // Outline less through-holes is the core's own area figure (index holes are drilled, and counted too).
+    // Routed openings are inside profiles; hole-sawn ones are drawn on a non-cut layer named with the
+    // saw, with the saw's pilot point on the drill layer.
     const circles = dxf.entities.filter((e) => e.layer === LAYER_INSIDE) as ICircleEntity[]
-    expect(circles).toHaveLength(plate.holes.filter((h) => h.kind !== 'index').length)
+    expect(circles).toHaveLength(plate.holes.filter((h) => h.method === 'routed').length)
+    const sawn = dxf.entities.filter((e) => e.layer.startsWith('RP-HOLESAW-')) as ICircleEntity[]
+    expect(sawn).toHaveLength(plate.holes.filter((h) => h.method === 'hole-saw').length)
     const holesArea = plate.holes.reduce((s, h) => s + (Math.PI * h.diameter ** 2) / 4, 0)
     expect(Math.abs(shoelace(pts) - holesArea - plate.metrics.area) / plate.metrics.area).toBeLessThan(5e-3)
   })

@@ -44,7 +44,7 @@ describe('renderCutSvg', () => {
 
   it('turns y so the drawing is not upside down', () => {
     // A hole above the centre (plate y > 0) must sit above it in SVG, i.e. at a negative cy.
-    const above = { ...plate, holes: [{ id: 'access-x', kind: 'access' as const, x: 0, y: 100, diameter: 50 }] }
+    const above = { ...plate, holes: [{ id: 'access-x', kind: 'access' as const, x: 0, y: 100, diameter: 50, method: 'routed' as const }] }
     const svg = renderCutSvg(above, { units: 'mm' })
     const group = svg.slice(svg.indexOf(`<g id="${LAYER_INSIDE}"`))
     expect(group).toMatch(/<circle cx="0" cy="-100" r="25"\/>/)
