@@ -90,7 +90,7 @@ export const TUBE_DIAMETER_RANGE = { min: 101.6, max: 1244.6 } as const
  * size (pockets, rabbets, casters, holes, minimum wood, plywood). The caster
  * offset is chosen afresh to hide the pans under the new trunk where it can
  * (placeCasters), and the access openings are placed between them inside the
- * tube wall (placeAccess; kept moving with the wall when nothing fits). The
+ * tube wall (placeAccess; left out when there is no room for them). The
  * new diameter is held within the field's bounds. The result always
  * satisfies the schema.
  */
@@ -123,7 +123,10 @@ export function deriveForTube(params: PlateParams, newTubeDiameter: number): Pla
   if (candidate.access.enabled) {
     const diameter = candidate.access.snapToHoleSaw ? snapToHoleSaw(candidate.access.diameter) : candidate.access.diameter
     const offset = placeAccess(candidate, candidate.casterOffset, diameter)
+    // No room inside the tube wall between the pans: leave the openings out rather than cut them
+    // into the pans (the designer can turn them on again and size them).
     if (offset !== null) candidate.access.offset = offset
+    else candidate.access.enabled = false
   }
   return plateParamsSchema.parse(candidate)
 }

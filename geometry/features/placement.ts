@@ -46,7 +46,8 @@ export function placeCasters(p: PlateParams): CasterPlacement {
  * An access-opening offset for the given caster offset: inside the tube's
  * inside wall, clear of the centre hole, as far from the pans as it can get
  * (searched on a 0.5 mm step). Null when no offset keeps the opening inside
- * the tube's inside wall with the minimum wood to the centre hole.
+ * the tube's inside wall with the minimum wood to the centre hole, the pans
+ * and its neighbours.
  */
 export function placeAccess(p: PlateParams, casterOffset: number, diameter: number): number | null {
   const n = p.casterCount
@@ -69,5 +70,6 @@ export function placeAccess(p: PlateParams, casterOffset: number, diameter: numb
       best = a
     }
   }
+  if (bestGap < p.minWood) return null
   return Math.round(best * 2) / 2
 }

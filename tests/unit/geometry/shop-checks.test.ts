@@ -9,7 +9,7 @@ import { Clipper, FillRule, type PathD } from 'clipper2-ts'
 import polygonClipping from 'polygon-clipping'
 import { buildPlate } from '../../../geometry/plate'
 import { plateParamsSchema, type PlateParamsInput } from '../../../geometry/params'
-import { presetParams, PRESETS } from '../../../geometry/presets'
+import { deriveForTube, presetParams, PRESETS } from '../../../geometry/presets'
 import { bendRadii, insideRadiusFindings } from '../../../geometry/checks/cutting'
 import { unionArea } from '../../../geometry/math/circles'
 import { TUBE_BEARING, LEAST_RABBET_FLOOR } from '../../../geometry/checks/pans'
@@ -291,4 +291,26 @@ describe('net area of overlapping holes', () => {
       { numRuns: 15 },
     )
   }, 60_000)
+})
+
+describe('a new design from a starting shape on a measured tube (deriveForTube)', () => {
+  it.each(PRESETS.map((p) => p.id))('%s on 12-1/2, 16-1/2 and 24-1/2 in tubes: no error, pans hidden where the tube allows', (id) => {
+    for (const tube of [317.5, 419.1, 622.3]) {
+      const params = deriveForTube(presetParams(id)!, tube)
+      const plate = buildPlate(params)
+      // By hand: pans of radius R = pocket / 2 + rabbet width must stand at least
+      // max(R + minWood + centre / 2, (2R + minWood) / (2 sin(pi / n))) out to clear the centre hole and each
+      // other (chord of the caster circle), and at most ro - R - 1.5 (tucked) to hide.
+      const R = params.pocketDiameter / 2 + params.rabbetWidth
+      const least = Math.max(R + params.minWood + params.centreHoleDiameter / 2, (2 * R + params.minWood) / (2 * Math.sin(Math.PI / params.casterCount)))
+      const room = least <= tube / 2 - R - 1.5
+      if (room) {
+        expect(plate.findings.filter((f) => f.severity === 'error'), `${id} ${tube}`).toEqual([])
+        expect(plate.findings.map((f) => f.code), `${id} ${tube}`).not.toContain('pan-visible')
+      } else {
+        expect(plate.findings.find((f) => f.code === 'pan-visible')!.message).toMatch(/too slim/)
+      }
+      expect(plate.holes.filter((h) => h.kind === 'index').length).toBeGreaterThanOrEqual(1)
+    }
+  })
 })
