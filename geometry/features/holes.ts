@@ -87,8 +87,9 @@ export function placeIndexHole(params: PlateParams, angleDeg: number, obstacles:
     const a = deg * DEG
     const c = Math.cos(a)
     const s = Math.sin(a)
-    for (let step = 0; step <= reachOut; step += 0.5) {
-      if (free((ro + step) * c, (ro + step) * s)) return { x: (ro + step) * c, y: (ro + step) * s }
+    // Out as far as reachOut, in as far as the centre hole: the whole axis within the plate.
+    for (let step = 0; step <= Math.max(reachOut, ro - inner); step += 0.5) {
+      if (step <= reachOut && free((ro + step) * c, (ro + step) * s)) return { x: (ro + step) * c, y: (ro + step) * s }
       const inward = ro - step
       if (step > 0 && inward >= inner && free(inward * c, inward * s)) return { x: inward * c, y: inward * s }
     }

@@ -3,6 +3,7 @@ import { buildPlate } from '../../../geometry/plate'
 import { plateParamsSchema } from '../../../geometry/params'
 import { HOLE_SAW_INCHES, snapToHoleSaw } from '../../../geometry/features/holes'
 import { floorStack } from '../../../geometry/checks/floor'
+import { presetParams } from '../../../geometry/presets'
 import { shoelace, threeInch } from './helpers'
 
 const DEG = Math.PI / 180
@@ -73,6 +74,16 @@ describe('access openings, centre and index holes', () => {
     expect(index[1]!.x).toBeCloseTo(0, 9)
     expect(index[1]!.y).toBeCloseTo(-params.tubeDiameter / 2, 9)
     expect(plate.axis.angle).toBe(90)
+  })
+
+  it('moves an index hole inward along the axis when outward is too far (the slim birch)', () => {
+    // 8-1/2 in tube: pocket 0 at 89 mm, rabbet radius 66.675, covers 22.325 to 155.675 mm on the 90 deg axis.
+    // Outward it would need 155.675 + 6.35 + 1.5875 = 163.6 mm, past the 107.95 + 53.975 reach; inward it fits
+    // at 22.325 - 6.35 - 1.5875 = 14.3875 mm or less (0.5 mm steps from the wall at 107.95).
+    const hole = buildPlate(presetParams('slim-birch')!).holes.find((h) => h.id === 'index-0')!
+    expect(hole.x).toBeCloseTo(0, 9)
+    expect(hole.y).toBeLessThanOrEqual(14.3875)
+    expect(hole.y).toBeGreaterThan(14.3875 - 0.5)
   })
 
   it('turns an index hole to the nearest free angle when the whole axis is taken', () => {
