@@ -24,23 +24,36 @@ export interface Bend {
  * any spacing.
  */
 export function bendRadii(ring: readonly Point[]): Float64Array {
-  const n = ring.length
-  const out = new Float64Array(n)
-  for (let i = 0; i < n; i++) {
-    const p = ring[(i + n - 1) % n]!
-    const q = ring[i]!
-    const r = ring[(i + 1) % n]!
-    const ax = q[0] - p[0]
-    const ay = q[1] - p[1]
-    const bx = r[0] - q[0]
-    const by = r[1] - q[1]
-    const cross = ax * by - ay * bx
-    const a = Math.hypot(ax, ay)
-    const b = Math.hypot(bx, by)
-    const c = Math.hypot(r[0] - p[0], r[1] - p[1])
-    out[i] = cross === 0 ? Infinity : (a * b * c) / (2 * cross)
-  }
+  const out = new Float64Array(ring.length)
+  for (let i = 0; i < ring.length; i++) out[i] = bendRadiusAt(ring, i)
   return out
+}
+
+/** The signed bend radius at one vertex (see bendRadii). */
+export function bendRadiusAt(ring: readonly Point[], i: number): number {
+  const n = ring.length
+  const p = ring[(i + n - 1) % n]!
+  const q = ring[i]!
+  const r = ring[(i + 1) % n]!
+  const ax = q[0] - p[0]
+  const ay = q[1] - p[1]
+  const bx = r[0] - q[0]
+  const by = r[1] - q[1]
+  const cross = ax * by - ay * bx
+  if (cross === 0) return Infinity
+  const cx = r[0] - p[0]
+  const cy = r[1] - p[1]
+  // sqrt of the product of squares: one root instead of three.
+  return Math.sqrt((ax * ax + ay * ay) * (bx * bx + by * by) * (cx * cx + cy * cy)) / (2 * cross)
+}
+
+/** Whether the vertex turns clockwise (an inside bend of a counter-clockwise ring). */
+function turnsInward(ring: readonly Point[], i: number): boolean {
+  const n = ring.length
+  const p = ring[(i + n - 1) % n]!
+  const q = ring[i]!
+  const r = ring[(i + 1) % n]!
+  return (q[0] - p[0]) * (r[1] - q[1]) - (q[1] - p[1]) * (r[0] - q[0]) < 0
 }
 
 /**
@@ -49,9 +62,12 @@ export function bendRadii(ring: readonly Point[]): Float64Array {
  * radius r cannot make an inside corner tighter than r (REFERENCES, "smallest
  * inside radius a round cutter leaves").
  */
-export function insideRadiusFindings(params: PlateParams, outline: readonly Point[], radii: Float64Array): Finding[] {
+export function insideRadiusFindings(params: PlateParams, outline: readonly Point[]): Finding[] {
   const limit = params.cutting.bitDiameter / 2
   const n = outline.length
+  // Only inward turns need their radius: most vertices are rejected by the sign of one cross product.
+  const radii = new Float64Array(n)
+  for (let i = 0; i < n; i++) radii[i] = turnsInward(outline, i) ? bendRadiusAt(outline, i) : Infinity
   const tight = (i: number) => radii[i]! < 0 && -radii[i]! < limit
   // Start the walk at a vertex that is not tight, so no stretch is split at the seam.
   let start = 0
@@ -87,7 +103,7 @@ export function insideRadiusFindings(params: PlateParams, outline: readonly Poin
  * outward bend near each lobe's tip, and each lobe's width halfway out along
  * its reach (found along the outline's radius function).
  */
-export function rootFindings(params: PlateParams, shape: OutlineShape, outline: readonly Point[], thetas: Float64Array, radii: Float64Array): Finding[] {
+export function rootFindings(params: PlateParams, shape: OutlineShape, outline: readonly Point[], thetas: Float64Array): Finding[] {
   const found: Finding[] = []
   const minTip = params.cutting.minTipRadius
   const minWidth = params.cutting.minRootWidth
@@ -110,7 +126,7 @@ export function rootFindings(params: PlateParams, shape: OutlineShape, outline: 
       else hi = mid
     }
     const visit = (i: number) => {
-      const r = radii[i]!
+      const r = bendRadiusAt(outline, i)
       if (r > 0 && r < sharpest) {
         sharpest = r
         at = i

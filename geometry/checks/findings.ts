@@ -8,7 +8,7 @@ import type { OutlineShape } from '../outline/shape'
 import { edgeGap, lensArea, centreDistance, type Circle } from '../math/circles'
 import { probeRing } from '../math/polygon'
 import type { FloorStack } from './floor'
-import { bendRadii, insideRadiusFindings, rootFindings, sheetFindings } from './cutting'
+import { insideRadiusFindings, rootFindings, sheetFindings } from './cutting'
 import { panFindings } from './pans'
 
 /** A 4x8 ft panel, 48 x 96 in nominal (US Product Standard PS 1-19): the default sheet. */
@@ -206,10 +206,9 @@ export function plateFindings(input: FindingsInput): Finding[] {
 }
 
 function cuttingFindings(input: FindingsInput): Finding[] {
-  const radii = bendRadii(input.outline)
   return [
-    ...insideRadiusFindings(input.params, input.outline, radii),
-    ...rootFindings(input.params, input.shape, input.outline, input.thetas, radii),
+    ...insideRadiusFindings(input.params, input.outline),
+    ...rootFindings(input.params, input.shape, input.outline, input.thetas),
     ...sheetFindings(input.params, input.outline, input.enclosingRadius),
   ]
 }

@@ -44,7 +44,7 @@ describe('a round cutter leaves inside radii no tighter than its own (REFERENCES
 
   it('flags it for a 1/4 in bit (1/8 in = 3.175 mm radius), once, at the bite', () => {
     const ring = bitten(2)
-    const found = insideRadiusFindings(params(0.25 * INCH), ring, bendRadii(ring))
+    const found = insideRadiusFindings(params(0.25 * INCH), ring)
     expect(found).toHaveLength(1)
     expect(found[0]!.values!.radius).toBeCloseTo(2, 6)
     expect(found[0]!.values!.cutterRadius).toBeCloseTo(3.175, 9)
@@ -55,9 +55,9 @@ describe('a round cutter leaves inside radii no tighter than its own (REFERENCES
 
   it('passes it for a bit of radius 1.9 mm, and a 3.2 mm bite for the 1/4 in bit', () => {
     const ring = bitten(2)
-    expect(insideRadiusFindings(params(3.8), ring, bendRadii(ring))).toEqual([])
+    expect(insideRadiusFindings(params(3.8), ring)).toEqual([])
     const wide = bitten(3.2)
-    expect(insideRadiusFindings(params(0.25 * INCH), wide, bendRadii(wide))).toEqual([])
+    expect(insideRadiusFindings(params(0.25 * INCH), wide)).toEqual([])
   })
 
   it.each(['default', ...PRESETS.map((p) => p.id)])('%s: the outline itself keeps every inside bend at least 1/8 in', (id) => {
