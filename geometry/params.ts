@@ -55,34 +55,69 @@ const lobesSchema = z.object({
   overrides: z.array(lobeOverrideSchema).max(24).default([]),
 })
 
+// The default hardware is a 2 in caster under a 4-1/4 in pocket: the largest
+// pan that still tucks under the default 12-1/2 in tube's wall with three
+// casters, the centre hole and access openings between them. Sizes from
+// memory of common light scenery casters, not a maker's catalogue.
 const casterSchema = z.object({
   /** Scenery casters run 2-5 in wheels (from memory); 1-1/2 to 8 in accepted. */
-  wheelDiameter: length(inch(1.5), inch(8), inch(3)),
+  wheelDiameter: length(inch(1.5), inch(8), inch(2)),
   /** Horizontal distance from the kingpin to the axle, mm; a fraction of the wheel diameter. */
-  swivelLead: length(0, inch(6), inch(1.25)),
-  /** Floor to the top of the caster's top plate (the mounting face), mm. A 3 in caster is about 4 in tall (from memory). */
-  overallHeight: length(inch(1.5), inch(12), inch(4)),
+  swivelLead: length(0, inch(6), inch(0.75)),
+  /** Floor to the top of the caster's top plate (the mounting face), mm. A 2 in caster is about 2-5/8 in tall (from memory). */
+  overallHeight: length(inch(1.5), inch(12), inch(2.625)),
+  /** Width of the wheel's tread, mm: its edges sweep the widest circle as it swivels. */
+  treadWidth: length(inch(0.25), inch(4), inch(0.75)),
+  /** Room kept between the swivelling wheel and the pocket's wall, mm. Default 1/4 in (from memory). */
+  swivelClearance: length(0, inch(2), inch(0.25)),
   /** Top plate side running along the radial line, mm. */
-  topPlateWidth: length(inch(1), inch(8), inch(2.5)),
+  topPlateWidth: length(inch(1), inch(8), inch(2.25)),
   /** Top plate side running square to the radial line, mm. */
-  topPlateLength: length(inch(1), inch(10), inch(3.625)),
-  /** Bolt centres along the top plate's length (square to the radial line), mm. 2-7/8 x 1-3/4 in is a common pattern (from memory). */
-  boltSpacingX: length(10, inch(9.5), inch(2.875)),
+  topPlateLength: length(inch(1), inch(10), inch(3)),
+  /** Bolt centres along the top plate's length (square to the radial line), mm. */
+  boltSpacingX: length(10, inch(9.5), inch(2.375)),
   /** Bolt centres along the top plate's width (along the radial line), mm. */
-  boltSpacingY: length(10, inch(7.5), inch(1.75)),
-  /** Mounting bolt diameter, mm: #8 screw to 5/8 in bolt. */
-  boltDiameter: length(3, 16, inch(0.3125)),
+  boltSpacingY: length(10, inch(7.5), inch(1.5)),
+  /** Mounting bolt diameter, mm: #8 screw to 5/8 in bolt. These go through the pan's steel crown, not the plywood. */
+  boltDiameter: length(3, 16, inch(0.25)),
   /** Outside diameter of the swivel raceway (the ball track under the top plate), mm; bolts must land outside it. */
-  racewayDiameter: length(10, inch(8), inch(2)),
+  racewayDiameter: length(10, inch(8), inch(1.5)),
+})
+
+/** The screws or bolts that hold each pan's rim down through the rabbet floor: the holes really drilled through the plywood round a pocket. */
+const fastenerSchema = z.object({
+  /** Fasteners per pan. */
+  count: z.number().int().min(2).max(12).default(4),
+  /** Hole diameter, mm: #6 screw to 1/2 in bolt. Default 1/4 in (from memory). */
+  diameter: length(3, inch(0.5), inch(0.25)),
+  /** Diameter of the circle they stand on, mm; left out, the middle of the rabbet ring. */
+  boltCircleDiameter: z.number().finite().min(10).max(inch(20)).optional(),
+})
+
+/** What the shop cuts with and on: the cutter sets the tightest inside bend, the sheet and its allowances the largest plate. */
+const cuttingSchema = z.object({
+  /** Router bit (or CNC end mill) diameter, mm; a round cutter leaves inside bends no tighter than its radius. Default 1/4 in. */
+  bitDiameter: length(inch(0.0625), inch(1), inch(0.25)),
+  /** Width of material the cut removes, mm; a CNC router's kerf is its bit (default 1/4 in). */
+  kerf: length(0, inch(0.5), inch(0.25)),
+  /** Unusable strip round the sheet's edge (damaged edges, hold-downs), mm. Default 1/2 in (from memory). */
+  edgeMargin: length(0, inch(6), inch(0.5)),
+  /** Sheet size, mm. Default 48 x 96 in (US Product Standard PS 1-19); metric 1220 x 2440. */
+  sheetWidth: length(inch(12), inch(72), inch(48)),
+  sheetLength: length(inch(12), inch(144), inch(96)),
+  /** Least radius at a root's tip, mm: a sharper tip splinters and breaks off. Default 1/2 in (from memory). */
+  minTipRadius: length(0, inch(6), inch(0.5)),
+  /** Least width of a root halfway out along its reach, mm. Default 1-1/2 in (from memory). */
+  minRootWidth: length(0, inch(12), inch(1.5)),
 })
 
 const accessSchema = z.object({
   /** One opening between each pair of neighbouring casters. */
   enabled: z.boolean().default(true),
   /** Opening diameter, mm: from a 3/4 in hole saw up to a 12 in router-pattern hole. */
-  diameter: length(inch(0.75), inch(12), inch(2.25)),
-  /** Plate centre to opening centre, mm. */
-  offset: length(0, 1500, 100),
+  diameter: length(inch(0.75), inch(12), inch(2)),
+  /** Plate centre to opening centre, mm. Default: between the default pans, inside the tube wall. */
+  offset: length(0, 1500, 125),
   /** Round the diameter to the nearest common hole-saw size (3/4 to 6 in); larger openings stay as given (cut with a router and a pattern). */
   snapToHoleSaw: z.boolean().default(true),
 })
@@ -94,17 +129,19 @@ const baseSchema = z.object({
   tubeWall: length(1, 25.4, inch(0.25)),
   /** Three casters always all touch an uneven floor; up to 8 round a big trunk. */
   casterCount: z.number().int().min(3).max(8).default(3),
-  /** Plate centre to pocket centre (the caster's kingpin), mm. */
-  casterOffset: length(20, 1500, 170),
-  /** Through-hole the pan drops into and the caster swivels in, mm: 1-1/2 to 16 in. */
-  pocketDiameter: length(inch(1.5), inch(16), inch(6.5)),
+  /** Plate centre to pocket centre (the caster's kingpin), mm. Default: the pans tucked just inside the default tube's outside wall. */
+  casterOffset: length(20, 1500, 90.5),
+  /** Through-hole the pan drops into and the caster swivels in, mm: 1-1/2 to 16 in. Default a 4-1/4 in hole saw. */
+  pocketDiameter: length(inch(1.5), inch(16), inch(4.25)),
   /** Width of the stepped ring round the pocket for the pan's rim, mm. */
-  rabbetWidth: length(3, 50, inch(0.625)),
+  rabbetWidth: length(3, 50, inch(0.5)),
   /** Depth of that ring below the top face, mm; about 3/8 in lets a pan rim sit flush (from memory). Must be less than the plate thickness. */
   rabbetDepth: length(1, 30, inch(0.375)),
   /** Height of the pan above its rim: from the rim's underside (on the rabbet floor) up to the underside of the pan's crown, where the caster's top plate bolts on. 0 is a flat plate in the rabbet. */
-  panDepth: length(0, 250, inch(2.5)),
+  panDepth: length(0, 250, inch(1.25)),
   caster: casterSchema.prefault({}),
+  fasteners: fastenerSchema.prefault({}),
+  cutting: cuttingSchema.prefault({}),
   /** Clocking: the angle of the first caster and of the axis through the index holes. */
   rotation: z.number().finite().min(-360).max(360).default(90),
   lobes: lobesSchema.prefault({}),

@@ -5,7 +5,7 @@ import type { PlateParams } from './params'
 import type { LobeTip, Plate, Point } from './types'
 import type { Circle } from './math/circles'
 import { roundFeatures, type RoundFeatures } from './features/holes'
-import { casterMounts, tubeNotches } from './features/casters'
+import { casterMounts, tubeBearing, tubeNotches } from './features/casters'
 import { outlineShape, type OutlineShape } from './outline/shape'
 import { sampleOutline, smoothPath } from './outline/sample'
 import { floorStack } from './checks/floor'
@@ -32,13 +32,13 @@ export function plateOutlineShape(params: PlateParams, features: RoundFeatures =
     ...rabbets.map((rb) => ({ x: rb.x, y: rb.y, radius: rb.diameter / 2 + minWood })),
     ...[...access, centre, ...index].map((h) => ({ x: h.x, y: h.y, radius: h.diameter / 2 + minWood })),
   ]
-  return outlineShape(params, clearances)
+  return outlineShape(params, clearances, { cutterRadius: params.cutting.bitDiameter / 2 })
 }
 
 export function buildPlate(params: PlateParams, options: BuildOptions = {}): Plate {
   const tolerance = options.tolerance ?? 0.1
   const features = roundFeatures(params)
-  const { pockets, rabbets, access, centre, index } = features
+  const { pockets, rabbets, access, centre, index, fasteners } = features
   const shape = plateOutlineShape(params, features)
   const sampled = sampleOutline(shape, { tolerance })
   const outline = sampled.points
@@ -51,11 +51,15 @@ export function buildPlate(params: PlateParams, options: BuildOptions = {}): Pla
 
   const mounts = casterMounts(params, pockets)
   const notches = tubeNotches(params, rabbets)
+  const bearing = tubeBearing(notches)
   const stack = floorStack(params)
   const holes = [...pockets, ...access, centre, ...index]
   const metrics = plateMetrics({
     outline,
+    // The contract's area is the outline less `holes`; the rim fasteners (a few small
+    // drilled holes) are left out of it so every reader computes the same figure.
     holes,
+    tubeBearing: bearing,
     rabbets,
     pocketDiameter: params.pocketDiameter,
     thickness: stack.thickness,
@@ -70,7 +74,12 @@ export function buildPlate(params: PlateParams, options: BuildOptions = {}): Pla
     centre,
     index,
     casterMounts: mounts,
+    fasteners,
+    notches,
+    tubeBearing: bearing,
     stack,
+    shape,
+    thetas: sampled.thetas,
     enclosingRadius: metrics.enclosingCircle.radius,
   })
 
@@ -82,6 +91,7 @@ export function buildPlate(params: PlateParams, options: BuildOptions = {}): Pla
     outline,
     outlinePath,
     holes,
+    fasteners,
     trunk: { x: 0, y: 0, diameter: params.tubeDiameter, innerDiameter: params.tubeDiameter - 2 * params.tubeWall },
     rabbets,
     casterMounts: mounts,

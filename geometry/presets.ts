@@ -1,7 +1,11 @@
 // Starting shapes, and sizing one shape to another tube. The preset names and
-// numbers are our own; each is a sound plate (no findings) as shipped.
+// numbers are our own; each is a sound plate as shipped: no error, the pans
+// hidden under the trunk (placeCasters) except on the slim birch, whose tube
+// is too slim for any pan that clears its caster, and which says so.
 
 import { minCasterOffset, plateParamsSchema, type PlateParams, type PlateParamsInput } from './params'
+import { placeAccess, placeCasters } from './features/placement'
+import { snapToHoleSaw } from './features/holes'
 
 export interface Preset {
   id: string
@@ -18,8 +22,8 @@ export const PRESETS: readonly Preset[] = [
     input: {
       tubeDiameter: 419.1,
       casterCount: 4,
-      casterOffset: 235,
-      access: { offset: 150 },
+      casterOffset: 141,
+      access: { offset: 160 },
       lobes: { count: 5, reach: 170, width: 170, roundness: 0.35, irregularity: 0.8, seed: 1337, valley: 22 },
     },
   },
@@ -29,7 +33,7 @@ export const PRESETS: readonly Preset[] = [
     description: 'Three tidy, rounded feet under an 8 in tube.',
     input: {
       tubeDiameter: 215.9,
-      casterOffset: 125,
+      casterOffset: 89,
       access: { enabled: false },
       lobes: { count: 3, reach: 70, width: 130, roundness: 0.8, irregularity: 0.1, seed: 21, valley: 20 },
     },
@@ -41,9 +45,9 @@ export const PRESETS: readonly Preset[] = [
     input: {
       tubeDiameter: 622.3,
       casterCount: 6,
-      casterOffset: 330,
-      access: { offset: 220, diameter: 101.6 },
-      lobes: { count: 10, reach: 230, width: 95, roundness: 0.15, irregularity: 0.6, seed: 4242, valley: 30 },
+      casterOffset: 242.5,
+      access: { offset: 140, diameter: 101.6 },
+      lobes: { count: 10, reach: 230, width: 95, roundness: 0.2, irregularity: 0.6, seed: 4242, valley: 30 },
     },
   },
   {
@@ -52,7 +56,7 @@ export const PRESETS: readonly Preset[] = [
     description: 'A lumpy, rounded boulder base with three broad swells.',
     input: {
       tubeDiameter: 457.2,
-      casterOffset: 240,
+      casterOffset: 160,
       access: { offset: 150, diameter: 76.2 },
       lobes: { count: 3, reach: 60, width: 420, roundness: 1, irregularity: 0.9, seed: 99, valley: 35 },
     },
@@ -83,11 +87,12 @@ export const TUBE_DIAMETER_RANGE = { min: 101.6, max: 1244.6 } as const
 /**
  * The same design on another tube. The look scales with the trunk (lobe
  * reach, width and valley, and per-lobe overrides); real hardware keeps its
- * size (pockets, rabbets, casters, holes, minimum wood, plywood). Pockets and
- * openings move out or in with the tube wall, so the pans tuck under the trunk
- * by the same amount; a caster offset that would bring a pocket onto the
- * centre hole stops at the least allowed. The new diameter is held within the
- * field's bounds. The result always satisfies the schema.
+ * size (pockets, rabbets, casters, holes, minimum wood, plywood). The caster
+ * offset is chosen afresh to hide the pans under the new trunk where it can
+ * (placeCasters), and the access openings are placed between them inside the
+ * tube wall (placeAccess; left out when there is no room for them). The
+ * new diameter is held within the field's bounds. The result always
+ * satisfies the schema.
  */
 export function deriveForTube(params: PlateParams, newTubeDiameter: number): PlateParams {
   const tube = clamp(newTubeDiameter, TUBE_DIAMETER_RANGE.min, TUBE_DIAMETER_RANGE.max)
@@ -114,5 +119,14 @@ export function deriveForTube(params: PlateParams, newTubeDiameter: number): Pla
   }
   // A tube wall thicker than the new tube allows is the one rule scaling can break.
   if (candidate.tubeWall * 2 >= tube) candidate.tubeWall = Math.max(1, tube / 4)
+  candidate.casterOffset = Math.max(placeCasters(candidate).offset, Math.ceil(minCasterOffset(params) * 1000) / 1000)
+  if (candidate.access.enabled) {
+    const diameter = candidate.access.snapToHoleSaw ? snapToHoleSaw(candidate.access.diameter) : candidate.access.diameter
+    const offset = placeAccess(candidate, candidate.casterOffset, diameter)
+    // No room inside the tube wall between the pans: leave the openings out rather than cut them
+    // into the pans (the designer can turn them on again and size them).
+    if (offset !== null) candidate.access.offset = offset
+    else candidate.access.enabled = false
+  }
   return plateParamsSchema.parse(candidate)
 }

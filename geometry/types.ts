@@ -7,11 +7,31 @@ export type Point = [number, number]
 
 export type HoleKind = 'pocket' | 'access' | 'centre' | 'index'
 
+/**
+ * How a hole is made: small holes drilled, openings up to about 6 in cut with
+ * a hole saw of that size, larger or odd-sized ones routed round a pattern
+ * (common practice, from memory).
+ */
+export type HoleMethod = 'drill' | 'hole-saw' | 'routed'
+
 /** A round through-hole in the plate. */
 export interface Hole {
   /** Stable id within one plate, e.g. `pocket-0`, `access-2`, `centre`, `index-0`. */
   id: string
   kind: HoleKind
+  x: number
+  y: number
+  diameter: number
+  method: HoleMethod
+  /** The hole saw's nominal diameter, mm, for `hole-saw` openings. */
+  sawSize?: number
+}
+
+/** A fastener hole through the rabbet floor that holds a pan's rim down. */
+export interface Fastener {
+  /** `fastener-<pocket>-<k>`. */
+  id: string
+  pocketId: string
   x: number
   y: number
   diameter: number
@@ -51,6 +71,8 @@ export interface TubeNotch {
   width: number
   /** Distance along the unrolled outside circumference from the clocking axis to the notch centre. */
   offsetAlongWrap: number
+  /** How high the notch is cut, mm above the plate's top face: the pan's rise plus a clearance. */
+  height: number
 }
 
 /** A lobe tip, for drawing handles and for per-lobe overrides. */
@@ -75,6 +97,8 @@ export interface Finding {
   holeIds?: string[]
   /** The parameter path most closely concerned, e.g. `casterOffset`. */
   field?: string
+  /** The numbers behind the message (lengths in mm, angles in degrees, fractions 0-1), so a page can say it in the reader's units. */
+  values?: Record<string, number>
 }
 
 export interface Metrics {
@@ -97,6 +121,8 @@ export interface Metrics {
   density: { value: number; source: string }
   /** Gap between the floor and the underside of the plate, mm. */
   floorGap: number
+  /** Share (0-1) of the tube's foot, the ring between its outside and inside diameters, that stands on wood. */
+  tubeBearing: number
 }
 
 export interface Plate {
@@ -107,8 +133,11 @@ export interface Plate {
   /** The same outline as SVG path data with cubic curves, in plate coordinates (y up). */
   outlinePath: string
   holes: Hole[]
+  /** Pan-rim fasteners, drilled through the rabbet floor. The caster's own bolts are not here: they go through the pan's steel (see casterMounts). */
+  fasteners: Fastener[]
   trunk: { x: number; y: number; diameter: number; innerDiameter: number }
   rabbets: Rabbet[]
+  /** Caster top plates and their bolts, for reference: the bolts go through the pan's crown, not the plywood. */
   casterMounts: CasterMount[]
   notches: TubeNotch[]
   lobeTips: LobeTip[]

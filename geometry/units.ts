@@ -69,11 +69,22 @@ function readAmount(text: string): number | null {
   return Number(t)
 }
 
-function normalise(input: string): string {
+/** Digits grouped in threes by commas, as in 1,219 or 12,000.5: a thousands separator, never a decimal comma. */
+const THOUSANDS_RE = /^[1-9]\d{0,2}(?:,\d{3})+(?:\.\d*)?(?![\d,])/
+
+function normalise(input: string): string | { error: string } {
   let t = input.trim().toLowerCase()
   t = t.replace(/[\u2033\u201c\u201d]/g, '"').replace(/[\u2032\u2018\u2019]/g, "'").replace(/''/g, '"')
-  // A decimal comma ("12,5 mm") is read as a point when the text has no point of its own.
-  if (!t.includes('.')) t = t.replace(/^(\d+),(\d+)/, '$1.$2')
+  const grouped = THOUSANDS_RE.exec(t)
+  if (grouped) {
+    t = grouped[0].replace(/,/g, '') + t.slice(grouped[0].length)
+  } else if (/^\d+,\d+,/.test(t) || (t.includes('.') && /^\d+,/.test(t))) {
+    return { error: `Cannot read "${input.trim()}": use commas only between groups of three digits (1,219 mm) or as the one decimal mark (12,5 mm).` }
+  } else if (!t.includes('.')) {
+    // A decimal comma ("12,5 mm", "0,125 in") is read as a point; three digits after
+    // a leading 1-9 were taken as thousands above.
+    t = t.replace(/^(\d+),(\d+)/, '$1.$2')
+  }
   return t.replace(/\s+/g, ' ')
 }
 
@@ -81,6 +92,7 @@ function normalise(input: string): string {
 export function parseLength(input: string, options: ParseOptions = {}): ParseResult {
   const unit = options.defaultUnit ?? 'mm'
   const t = normalise(input)
+  if (typeof t !== 'string') return { ok: false, message: t.error }
   if (t === '') return { ok: false, message: `Enter a length, ${EXAMPLES}.` }
   if (t.startsWith('-')) return { ok: false, message: 'A length cannot be negative.' }
 
@@ -94,6 +106,10 @@ export function parseLength(input: string, options: ParseOptions = {}): ParseRes
     const inches = m[2] === undefined ? 0 : readAmount(m[2])
     mm = feet === null || inches === null ? null : inchesToMm(feet * 12 + inches)
     if (mm === null) return { ok: false, message: 'A fraction cannot have 0 below the line.' }
+    // 1' 15" is a slip (a 1 for a 2, or inches typed as a total), not 27 in: say so rather than guess.
+    if (inches !== null && inches >= 12) {
+      return { ok: false, message: `After feet the inches must be less than 12: "${input.trim()}" has ${inches}". Write ${formatInches(mm, { feet: true, denominator: 64 })} or ${formatInches(mm, { denominator: 64 })} if that is what you mean.` }
+    }
   } else if ((m = INCH_RE.exec(t))) {
     const inches = readAmount(m[1] ?? '')
     if (inches === null) return { ok: false, message: 'A fraction cannot have 0 below the line.' }

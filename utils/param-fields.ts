@@ -38,6 +38,8 @@ export const paramGroups: ParamGroup[] = [
       { path: 'panDepth', label: 'Pan depth', kind: 'length' },
       { path: 'caster.wheelDiameter', label: 'Wheel diameter', kind: 'length' },
       { path: 'caster.swivelLead', label: 'Swivel lead', kind: 'length' },
+      { path: 'caster.treadWidth', label: 'Tread width', kind: 'length', hint: 'Width of the wheel: its edges sweep the widest circle as it swivels' },
+      { path: 'caster.swivelClearance', label: 'Swivel clearance', kind: 'length', hint: 'Room kept between the swivelling wheel and the pocket wall' },
       { path: 'caster.overallHeight', label: 'Caster height', kind: 'length', hint: 'Floor to the top of the mounting plate' },
       { path: 'caster.topPlateWidth', label: 'Top plate width', kind: 'length' },
       { path: 'caster.topPlateLength', label: 'Top plate length', kind: 'length' },
@@ -45,6 +47,15 @@ export const paramGroups: ParamGroup[] = [
       { path: 'caster.boltSpacingY', label: 'Bolt spacing, short', kind: 'length' },
       { path: 'caster.boltDiameter', label: 'Bolt diameter', kind: 'length' },
       { path: 'caster.racewayDiameter', label: 'Swivel raceway', kind: 'length' },
+    ],
+  },
+  {
+    id: 'fasteners',
+    title: 'Pan fasteners',
+    fields: [
+      { path: 'fasteners.count', label: 'Per pan', kind: 'count', hint: 'Screws or bolts through the rabbet floor holding each pan\'s rim' },
+      { path: 'fasteners.diameter', label: 'Hole diameter', kind: 'length' },
+      { path: 'fasteners.boltCircleDiameter', label: 'Bolt circle', kind: 'length', hint: 'Diameter they stand on; empty puts them in the middle of the rabbet ring' },
     ],
   },
   {
@@ -71,6 +82,19 @@ export const paramGroups: ParamGroup[] = [
       { path: 'access.snapToHoleSaw', label: 'Snap to hole-saw sizes', kind: 'toggle' },
       { path: 'centreHoleDiameter', label: 'Centre hole', kind: 'length' },
       { path: 'indexHoleDiameter', label: 'Index holes', kind: 'length' },
+    ],
+  },
+  {
+    id: 'cutting',
+    title: 'Cutting and sheet',
+    fields: [
+      { path: 'cutting.bitDiameter', label: 'Router bit', kind: 'length', hint: 'A round cutter leaves no inside bend tighter than its radius' },
+      { path: 'cutting.kerf', label: 'Kerf', kind: 'length', hint: 'Width the cut removes' },
+      { path: 'cutting.edgeMargin', label: 'Sheet edge margin', kind: 'length' },
+      { path: 'cutting.sheetWidth', label: 'Sheet width', kind: 'length' },
+      { path: 'cutting.sheetLength', label: 'Sheet length', kind: 'length' },
+      { path: 'cutting.minTipRadius', label: 'Least root tip radius', kind: 'length' },
+      { path: 'cutting.minRootWidth', label: 'Least root width', kind: 'length', hint: 'Measured halfway out along the root' },
     ],
   },
   {

@@ -89,6 +89,13 @@ export function drawPlate(scope: Scope, layer: paper.Layer, plate: Plate, o: Dra
       add(polyline(scope, [[h.x, h.y - arm], [h.x, h.y + arm]], false, { strokeColor: plateColours.pocket, strokeWidth: 1 }))
     }
   }
+  // Pan-rim fasteners, drilled through the rabbet floor.
+  for (const f of plate.fasteners ?? []) add(circle(scope, f.x, f.y, Math.max(f.diameter / 2, px(1.5)), { strokeColor: plateColours.rabbet, strokeWidth: 1, fillColor: plateColours.rabbet }))
+  // A hole saw cuts round its pilot drill: mark the centre it is started from.
+  for (const h of plate.holes) {
+    if (h.method !== 'hole-saw') continue
+    add(circle(scope, h.x, h.y, px(2), { fillColor: plateColours.dim, strokeColor: plateColours.dim, strokeWidth: 1 }))
+  }
   // Caster top plates hang below the pan, so they show through the pocket openings.
   for (const m of plate.casterMounts) {
     add(polyline(scope, m.corners, true, { strokeColor: plateColours.mount, strokeWidth: 1, dashArray: [4, 2] }))
@@ -109,7 +116,28 @@ export function drawPlate(scope: Scope, layer: paper.Layer, plate: Plate, o: Dra
     add(arc)
   }
   add(polyline(scope, [plate.axis.from, plate.axis.to], false, { strokeColor: plateColours.axis, strokeWidth: 1, dashArray: [12, 4, 2, 4] }))
+  drawFindingMarks(scope, layer, plate, o)
   drawDimensions(scope, layer, plate, o)
+}
+
+/**
+ * Every finding with a place gets a ring there, solid for an error and dashed
+ * for a warning, so problems are seen where they are without opening the list.
+ */
+function drawFindingMarks(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {
+  const px = (n: number) => n / o.zoom
+  for (const f of plate.findings) {
+    if (!f.at) continue
+    const r = Math.max(f.at.radius ?? 0, px(7)) + px(3)
+    const mark = circle(scope, f.at.x, f.at.y, r, {
+      strokeColor: plateColours.problem,
+      strokeWidth: f.severity === 'error' ? 2 : 1.5,
+      ...(f.severity === 'error' ? {} : { dashArray: [5, 3] }),
+      opacity: 0.85,
+    })
+    mark.data = { finding: f.code }
+    layer.addChild(mark)
+  }
 }
 
 function drawDimensions(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {

@@ -3,12 +3,15 @@
 // shop cannot build or must not roll; warnings are things it should look at.
 
 import type { PlateParams } from '../params'
-import type { CasterMount, Finding, Hole, Point, Rabbet } from '../types'
+import type { CasterMount, Fastener, Finding, Hole, Point, Rabbet, TubeNotch } from '../types'
+import type { OutlineShape } from '../outline/shape'
 import { edgeGap, lensArea, centreDistance, type Circle } from '../math/circles'
-import { fitsRectangle, probeRing } from '../math/polygon'
+import { probeRing } from '../math/polygon'
 import type { FloorStack } from './floor'
+import { insideRadiusFindings, rootFindings, sheetFindings } from './cutting'
+import { panFindings } from './pans'
 
-/** A 4x8 ft panel, 48 x 96 in nominal (US Product Standard PS 1-19). */
+/** A 4x8 ft panel, 48 x 96 in nominal (US Product Standard PS 1-19): the default sheet. */
 export const SHEET_MM = { width: 1219.2, length: 2438.4 } as const
 
 export interface FindingsInput {
@@ -20,7 +23,13 @@ export interface FindingsInput {
   centre: Hole
   index: readonly Hole[]
   casterMounts: readonly CasterMount[]
+  fasteners: readonly Fastener[]
+  notches: readonly TubeNotch[]
+  tubeBearing: number
   stack: FloorStack
+  /** The outline's radius function and the angle of each outline vertex, for the cutting checks. */
+  shape: OutlineShape
+  thetas: Float64Array
   /** Radius of the smallest circle round the outline; a plate inside a 48 in circle fits a sheet without turning it. */
   enclosingRadius: number
 }
@@ -74,9 +83,9 @@ function edgeFindings(input: FindingsInput, items: readonly Keepout[]): Finding[
     const wood = probe.inside ? probe.distance - circle.radius : -Infinity
     const at = { x: circle.x, y: circle.y, radius: circle.radius }
     if (wood < 0) {
-      found.push({ code: 'hole-cuts-edge', severity: 'error', message: `${label} cuts through the plate's edge.`, at, holeIds: [hole.id], field })
+      found.push({ code: 'hole-cuts-edge', severity: 'error', message: `${label} cuts through the plate's edge.`, at, holeIds: [hole.id], field, values: { minWood } })
     } else if (wood < minWood) {
-      found.push({ code: 'edge-too-close', severity: 'warning', message: `${label} has ${mm(wood)} of wood to the edge, less than the minimum ${mm(minWood)}.`, at, holeIds: [hole.id], field })
+      found.push({ code: 'edge-too-close', severity: 'warning', message: `${label} has ${mm(wood)} of wood to the edge, less than the minimum ${mm(minWood)}.`, at, holeIds: [hole.id], field, values: { wood, minWood } })
     }
   })
   return found
@@ -103,6 +112,7 @@ function spacingFindings(input: FindingsInput, items: readonly Keepout[]): Findi
           at,
           holeIds,
           field,
+          values: { sharedArea: shared, overlap: -gap },
         })
       } else if (gap < minWood && a.hole.kind !== 'index' && b.hole.kind !== 'index') {
         // Index holes are small drilled marks: only their running into another hole matters.
@@ -113,6 +123,7 @@ function spacingFindings(input: FindingsInput, items: readonly Keepout[]): Findi
           at,
           holeIds,
           field,
+          values: { wood: gap, minWood },
         })
       }
     }
@@ -131,9 +142,9 @@ function trunkWallFindings(input: FindingsInput): Finding[] {
     const at = { x: hole.x, y: hole.y, radius: r }
     const label = labelFor(hole)
     if (d - r >= ro) {
-      found.push({ code: 'access-outside-trunk', severity: 'warning', message: `${label} lies outside the trunk, where it shows and cannot be reached from inside.`, at, holeIds: [hole.id], field: FIELD[hole.kind] })
+      found.push({ code: 'access-outside-trunk', severity: 'warning', message: `${label} lies outside the trunk, where it shows and cannot be reached from inside.`, at, holeIds: [hole.id], field: FIELD[hole.kind], values: { distance: d - r, tubeRadius: ro } })
     } else if (d + r > ri) {
-      found.push({ code: 'hole-crosses-trunk-wall', severity: 'error', message: `${label} reaches under the tube wall, which would stand on nothing there.`, at, holeIds: [hole.id], field: FIELD[hole.kind] })
+      found.push({ code: 'hole-crosses-trunk-wall', severity: 'error', message: `${label} reaches under the tube wall, which would stand on nothing there.`, at, holeIds: [hole.id], field: FIELD[hole.kind], values: { reach: d + r, insideRadius: ri } })
     }
   }
   return found
@@ -148,11 +159,12 @@ function casterFindings(input: FindingsInput): Finding[] {
   const first = input.pockets[0]
   const at = first ? { x: first.x, y: first.y, radius: pocketRadius } : undefined
   const ids = input.pockets.map((p) => p.id)
-  if (diagonal > params.pocketDiameter) {
-    found.push({ code: 'caster-too-big-for-pocket', severity: 'error', message: `The caster's top plate (${mm(diagonal)} corner to corner) cannot pass through a ${mm(params.pocketDiameter)} pocket to reach the pan.`, at, holeIds: ids, field: 'pocketDiameter' })
+  // A block passes a round opening when the diagonal of its smallest cross-section is less than the opening's diameter.
+  if (diagonal >= params.pocketDiameter) {
+    found.push({ code: 'caster-too-big-for-pocket', severity: 'error', message: `The caster's top plate (${mm(diagonal)} corner to corner) cannot pass through a ${mm(params.pocketDiameter)} pocket to reach the pan.`, at, holeIds: ids, field: 'pocketDiameter', values: { diagonal, pocketDiameter: params.pocketDiameter } })
   }
-  if (stack.wheelReach > pocketRadius) {
-    found.push({ code: 'wheel-swing', severity: 'error', message: `The swivelling wheel reaches ${mm(stack.wheelReach)} from its kingpin inside the pocket, past the pocket's edge at ${mm(pocketRadius)}.`, at, holeIds: ids, field: 'pocketDiameter' })
+  if (stack.swivelRadius > pocketRadius) {
+    found.push({ code: 'wheel-swing', severity: 'error', message: `The swivelling wheel's tread edge reaches ${mm(stack.swivelRadius - c.swivelClearance)} from its kingpin inside the pocket; with the ${mm(c.swivelClearance)} clearance it needs ${mm(stack.swivelRadius)}, past the pocket's edge at ${mm(pocketRadius)}.`, at, holeIds: ids, field: 'pocketDiameter', values: { swivelRadius: stack.swivelRadius, wheelReach: stack.wheelReach, clearance: c.swivelClearance, pocketRadius } })
   }
   const raceway = c.racewayDiameter / 2
   for (const mount of input.casterMounts) {
@@ -161,7 +173,7 @@ function casterFindings(input: FindingsInput): Finding[] {
     const inside = mount.bolts.filter((b) => Math.hypot(b.x - pocket.x, b.y - pocket.y) - b.diameter / 2 < raceway)
     if (inside.length > 0) {
       const b = inside[0]!
-      found.push({ code: 'bolt-in-raceway', severity: 'error', message: `${labelFor(pocket)}: ${inside.length} mounting bolt(s) fall inside the swivel raceway (${mm(c.racewayDiameter)} across).`, at: { x: b.x, y: b.y, radius: b.diameter / 2 }, holeIds: [pocket.id], field: 'caster.racewayDiameter' })
+      found.push({ code: 'bolt-in-raceway', severity: 'error', message: `${labelFor(pocket)}: ${inside.length} mounting bolt(s) fall inside the swivel raceway (${mm(c.racewayDiameter)} across).`, at: { x: b.x, y: b.y, radius: b.diameter / 2 }, holeIds: [pocket.id], field: 'caster.racewayDiameter', values: { racewayDiameter: c.racewayDiameter } })
     }
   }
   return found
@@ -170,19 +182,15 @@ function casterFindings(input: FindingsInput): Finding[] {
 function floorFindings(input: FindingsInput): Finding[] {
   const { params, stack } = input
   if (stack.floorGap < 0) {
-    return [{ code: 'floor-gap-negative', severity: 'error', message: `The plate would sit ${mm(-stack.floorGap)} below the wheels' reach: it rests on the floor and the casters carry nothing. Use a shallower pan or taller casters.`, field: 'panDepth' }]
+    return [{ code: 'floor-gap-negative', severity: 'error', message: `The plate would sit ${mm(-stack.floorGap)} below the wheels' reach: it rests on the floor and the casters carry nothing. Use a shallower pan or taller casters.`, field: 'panDepth', values: { floorGap: stack.floorGap } }]
   }
   if (stack.floorGap < params.minFloorGap) {
-    return [{ code: 'floor-gap-small', severity: 'warning', message: `Floor gap ${mm(stack.floorGap)} is less than the ${mm(params.minFloorGap)} asked for.`, field: 'panDepth' }]
+    return [{ code: 'floor-gap-small', severity: 'warning', message: `Floor gap ${mm(stack.floorGap)} is less than the ${mm(params.minFloorGap)} asked for.`, field: 'panDepth', values: { floorGap: stack.floorGap, minFloorGap: params.minFloorGap } }]
   }
   return []
 }
 
-function sheetFindings(input: FindingsInput): Finding[] {
-  if (input.enclosingRadius * 2 <= SHEET_MM.width) return []
-  if (fitsRectangle(input.outline, SHEET_MM.width, SHEET_MM.length, 2 * input.enclosingRadius)) return []
-  return [{ code: 'larger-than-sheet', severity: 'warning', message: 'The plate does not fit a 48 x 96 in sheet in any orientation: each layer must be pieced.', field: 'lobes.reach' }]
-}
+export { labelFor }
 
 export function plateFindings(input: FindingsInput): Finding[] {
   const items = keepouts(input)
@@ -192,6 +200,15 @@ export function plateFindings(input: FindingsInput): Finding[] {
     ...trunkWallFindings(input),
     ...casterFindings(input),
     ...floorFindings(input),
-    ...sheetFindings(input),
+    ...panFindings(input),
+    ...cuttingFindings(input),
+  ]
+}
+
+function cuttingFindings(input: FindingsInput): Finding[] {
+  return [
+    ...insideRadiusFindings(input.params, input.outline),
+    ...rootFindings(input.params, input.shape, input.outline, input.thetas),
+    ...sheetFindings(input.params, input.outline, input.enclosingRadius),
   ]
 }

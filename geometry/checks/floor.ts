@@ -16,9 +16,9 @@
 // plate in the rabbet instead of a cup is panDepth = 0.
 //
 // Worked example (the default plate): T = 2 * 17.8562 = 35.7124 mm,
-// rabbetDepth 9.525, panDepth 63.5, a 3 in caster 101.6 tall:
-// seat = 35.7124 - 9.525 + 63.5 = 89.6874 mm; gap = 101.6 - 89.6874 = 11.9126 mm
-// (about 15/32 in).
+// rabbetDepth 9.525, panDepth 31.75, a 2 in caster 66.675 tall:
+// seat = 35.7124 - 9.525 + 31.75 = 57.9374 mm; gap = 66.675 - 57.9374 = 8.7376 mm
+// (about 11/32 in).
 
 import type { PlateParams } from '../params'
 
@@ -31,6 +31,13 @@ export interface FloorStack {
   floorGap: number
   /** Farthest reach of the swivelling wheel from the kingpin, in plan, at the height of the plate's underside; 0 when the wheel stays below the plate. */
   wheelReach: number
+  /**
+   * Radius the pocket must leave free round the kingpin: the corner of the
+   * tread at that reach (the wheel is treadWidth wide, so its edge is
+   * hypot(wheelReach, treadWidth / 2) out) plus the swivel clearance; 0 when
+   * the wheel stays below the plate.
+   */
+  swivelRadius: number
 }
 
 export function floorStack(params: PlateParams): FloorStack {
@@ -47,5 +54,6 @@ export function floorStack(params: PlateParams): FloorStack {
     const half = floorGap <= r ? r : Math.sqrt(Math.max(0, r * r - (floorGap - r) ** 2))
     wheelReach = c.swivelLead + half
   }
-  return { thickness, seatHeight, floorGap, wheelReach }
+  const swivelRadius = wheelReach > 0 ? Math.hypot(wheelReach, c.treadWidth / 2) + c.swivelClearance : 0
+  return { thickness, seatHeight, floorGap, wheelReach, swivelRadius }
 }

@@ -14,6 +14,14 @@ export const LAYER_INSIDE = 'RP-INSIDE-CUT'
 export const LAYER_RABBET_PREFIX = 'RP-RABBET-'
 export const LAYER_DRILL = 'RP-DRILL'
 export const LAYER_REFERENCE = 'RP-REFERENCE'
+export const LAYER_HOLESAW_PREFIX = 'RP-HOLESAW-'
+/** A hole saw's pilot drill, mm: 1/4 in on common arbors (from memory). */
+export const HOLE_SAW_PILOT = 6.35
+
+/** `RP-HOLESAW-4.25IN`, `RP-HOLESAW-107.95MM`: a non-cut layer whose name carries the saw size. */
+export function holeSawLayerName(sawMm: number, units: ExportUnits): string {
+  return `${LAYER_HOLESAW_PREFIX}${Number(fromMm(sawMm, units).toFixed(3))}${units.toUpperCase()}`
+}
 
 export interface CutOptions {
   units: ExportUnits
@@ -138,19 +146,32 @@ export function buildCutDrawing(plate: Plate, options: CutOptions): CutDrawing {
   }
 
   add(LAYER_OUTSIDE, 'outside', { type: 'polyline', points: closedRing(outlineWithin(plate, o.chordTolerance)), closed: true })
+  // Routed openings are inside profiles. A hole-sawn one is not machined as a profile: its
+  // saw's pilot point goes on the drill layer, and its circle on a layer that is never cut
+  // and names the saw (`RP-HOLESAW-4.25IN`), so the size travels with the file and no cut
+  // layer carries text.
   for (const h of plate.holes) {
-    if (h.kind === 'index') continue
-    add(LAYER_INSIDE, 'inside', circle(h.x, h.y, h.diameter))
+    if (h.method === 'routed') add(LAYER_INSIDE, 'inside', circle(h.x, h.y, h.diameter))
+    else if (h.method === 'hole-saw') {
+      add(LAYER_DRILL, 'drill', circle(h.x, h.y, HOLE_SAW_PILOT))
+      add(holeSawLayerName(h.sawSize ?? h.diameter, o.units), 'reference', circle(h.x, h.y, h.diameter))
+    }
   }
   const rabbets = [...plate.rabbets].sort((a, b) => a.depth - b.depth)
   for (const r of rabbets) {
     add(rabbetLayerName(r.depth, o.units), 'rabbet', circle(r.x, r.y, r.diameter), Number(fromMm(r.depth, o.units).toFixed(3)))
   }
+  // Drilled through the plywood: the centre and index holes (they register the layers and the
+  // pattern) and the pan-rim fasteners through the rabbet floor.
   for (const h of plate.holes) {
-    if (h.kind === 'index') add(LAYER_DRILL, 'drill', circle(h.x, h.y, h.diameter))
+    if (h.method === 'drill') add(LAYER_DRILL, 'drill', circle(h.x, h.y, h.diameter))
   }
-  for (const m of plate.casterMounts) {
-    for (const b of m.bolts) add(LAYER_DRILL, 'drill', circle(b.x, b.y, b.diameter))
+  for (const f of plate.fasteners ?? []) add(LAYER_DRILL, 'drill', circle(f.x, f.y, f.diameter))
+  // The caster's own bolts go through the pan's steel crown, not the wood: drawn for reference only.
+  if (o.includeReference) {
+    for (const m of plate.casterMounts) {
+      for (const b of m.bolts) add(LAYER_REFERENCE, 'reference', circle(b.x, b.y, b.diameter))
+    }
   }
   if (o.includeReference) {
     add(LAYER_REFERENCE, 'reference', circle(plate.trunk.x, plate.trunk.y, plate.trunk.diameter))

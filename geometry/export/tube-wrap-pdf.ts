@@ -25,8 +25,8 @@ export interface TubeWrapOptions {
   /** Strip height, mm. Default 152.4 (6 in). */
   height?: number
   /**
-   * Height drawn for each notch, mm. Default 25.4 (1 in): a starting figure
-   * only, the shop sets it from the pan rim and caster plate it has to clear.
+   * Height drawn for each notch, mm. Default: each notch's own height from the
+   * plate (the pan's rise above the top face plus a clearance).
    */
   notchHeight?: number
   /** Extra length past the index line for gluing the strip to itself, mm. Default 25.4 (1 in). */
@@ -61,7 +61,8 @@ function positive(name: string, v: number): number {
 export function tubeWrapLayout(plate: Plate, options: Pick<TubeWrapOptions, 'height' | 'notchHeight' | 'tab'> = {}): TubeWrapLayout {
   const circumference = positive('tube diameter', Math.PI * plate.trunk.diameter)
   const height = positive('height', options.height ?? 6 * MM_PER_INCH)
-  const notchHeight = Math.min(height, positive('notchHeight', options.notchHeight ?? MM_PER_INCH))
+  const tallest = plate.notches.reduce((h, n) => Math.max(h, n.height), 0)
+  const notchHeight = Math.min(height, positive('notchHeight', options.notchHeight ?? (tallest > 0 ? tallest : MM_PER_INCH)))
   const tab = options.tab ?? MM_PER_INCH
   if (!Number.isFinite(tab) || tab < 0) throw new RangeError(`tab must be zero or more, got ${tab}.`)
   const notches = plate.notches.map((n) => {
@@ -172,7 +173,7 @@ export function planTubeWrap(plate: Plate, options: TubeWrapOptions): TubeWrap {
     avoid: [{ shape: strip, weight: 1 }],
     legend,
     notes: [
-      `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them. Notch height ${formatShopLength(layout.notchHeight, units)}: set it to clear the pan rim and caster plate.`,
+      `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them. Notch height ${formatShopLength(layout.notchHeight, units)}: the pan's rise above the plate plus a clearance for its crown and the caster's nuts.`,
     ],
   }
   return { drawing, tiling, layout }

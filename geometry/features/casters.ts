@@ -33,6 +33,17 @@ export function casterMounts(params: PlateParams, pockets: readonly Hole[]): Cas
   })
 }
 
+/**
+ * Room above the pan's crown in a tube notch, mm: the crown's steel, the nuts
+ * on the caster's bolts and a little play. 1/2 in, from memory.
+ */
+export const NOTCH_CLEARANCE = 12.7
+
+/** How far the pan stands above the plate's top face, mm: from the rabbet floor up to the crown's underside, less the rabbet's depth. */
+export function panRise(params: PlateParams): number {
+  return Math.max(0, params.panDepth - params.rabbetDepth)
+}
+
 /** Largest angle (radians) either side of the centre line at which a circle of radius s crosses a circle of radius rho centred d from the origin. */
 function halfAngleAt(s: number, d: number, rho: number): number {
   const cos = (s * s + d * d - rho * rho) / (2 * s * d)
@@ -45,7 +56,10 @@ function halfAngleAt(s: number, d: number, rho: number): number {
  * notch must clear the pan through the whole wall, so its half-span is the
  * widest angle at which any radius between the wall's inside and outside
  * meets the rabbet circle: at one of the wall faces, or where a ray from the
- * centre grazes the circle if that lies within the wall.
+ * centre grazes the circle if that lies within the wall. The rabbet circle,
+ * not the pan's body, because the rim in the rabbet is steel: the tube's cut
+ * edge must land on wood. Its height is what rises above the top face (the
+ * pan) plus a clearance.
  */
 export function tubeNotches(params: PlateParams, rabbetCircles: readonly { pocketId: string; x: number; y: number; diameter: number }[]): TubeNotch[] {
   const ro = params.tubeDiameter / 2
@@ -72,7 +86,37 @@ export function tubeNotches(params: PlateParams, rabbetCircles: readonly { pocke
       span,
       width: ro * 2 * half,
       offsetAlongWrap: ro * fromAxis * DEG,
+      height: panRise(params) + NOTCH_CLEARANCE,
     })
   })
   return notches
+}
+
+/**
+ * The share of the tube's foot (the ring between its outside and inside
+ * diameters) left standing on wood: each notch removes bearing in proportion
+ * to its angle (REFERENCES, "a form tube's foot"); overlapping notches count once.
+ */
+export function tubeBearing(notches: readonly TubeNotch[]): number {
+  if (notches.length === 0) return 1
+  const spans: [number, number][] = []
+  for (const n of notches) {
+    if (n.span >= 360) return 0
+    const a = ((n.startAngle % 360) + 360) % 360
+    const b = a + n.span
+    if (b > 360) spans.push([a, 360], [0, b - 360])
+    else spans.push([a, b])
+  }
+  spans.sort((p, q) => p[0] - q[0])
+  let removed = 0
+  let [lo, hi] = spans[0]!
+  for (const [a, b] of spans.slice(1)) {
+    if (a > hi) {
+      removed += hi - lo
+      lo = a
+      hi = b
+    } else hi = Math.max(hi, b)
+  }
+  removed += hi - lo
+  return Math.max(0, 1 - removed / 360)
 }

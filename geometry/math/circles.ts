@@ -38,19 +38,59 @@ export function lensArea(r1: number, r2: number, d: number): number {
 }
 
 /**
- * Area covered by a set of circles, by inclusion-exclusion over pairs. Exact
- * while no point lies in three circles at once; three holes sharing wood is
- * already an error finding, and the figure then errs high by the triple overlap.
+ * Area covered by a set of circles, exactly, for any overlap (three or more
+ * sharing a spot included). By Green's theorem the area is half the integral
+ * of x dy - y dx round the union's boundary, and that boundary is made of the
+ * arcs of each circle that no other circle covers; an arc of circle (cx, cy, r)
+ * from t1 to t2 contributes (r^2 (t2 - t1) + cx r (sin t2 - sin t1) - cy r (cos t1 - cos t2)) / 2.
+ * Gaps enclosed by a ring of circles come out negative by the same sum, as they must.
  */
 export function unionArea(circles: readonly Circle[]): number {
+  const list = circles.filter((c) => c.radius > 0)
+  const EPS = 1e-9
   let area = 0
-  for (let i = 0; i < circles.length; i++) {
-    const a = circles[i]!
-    area += Math.PI * a.radius * a.radius
-    for (let j = i + 1; j < circles.length; j++) {
-      const b = circles[j]!
-      area -= lensArea(a.radius, b.radius, centreDistance(a, b))
+  for (let i = 0; i < list.length; i++) {
+    const a = list[i]!
+    let hidden = false
+    const covered: [number, number][] = []
+    for (let j = 0; j < list.length && !hidden; j++) {
+      if (j === i) continue
+      const b = list[j]!
+      const d = centreDistance(a, b)
+      const same = d <= EPS && Math.abs(a.radius - b.radius) <= EPS
+      // A circle inside another (or the later of two equal ones) adds no boundary.
+      if (same ? j < i : d + a.radius <= b.radius + EPS) {
+        hidden = true
+        break
+      }
+      if (same || d >= a.radius + b.radius || d + b.radius <= a.radius) continue
+      const mid = Math.atan2(b.y - a.y, b.x - a.x)
+      const half = Math.acos(Math.min(1, Math.max(-1, (a.radius * a.radius + d * d - b.radius * b.radius) / (2 * a.radius * d))))
+      covered.push([mid - half, mid + half])
     }
+    if (hidden) continue
+    if (covered.length === 0) {
+      area += Math.PI * a.radius * a.radius
+      continue
+    }
+    // Normalise into [0, 2 pi), split at the seam, merge, and integrate the gaps.
+    const TWO_PI = 2 * Math.PI
+    const spans: [number, number][] = []
+    for (const [lo, hi] of covered) {
+      const s = ((lo % TWO_PI) + TWO_PI) % TWO_PI
+      const e = s + (hi - lo)
+      if (e > TWO_PI) spans.push([s, TWO_PI], [0, e - TWO_PI])
+      else spans.push([s, e])
+    }
+    spans.sort((p, q) => p[0] - q[0])
+    const arc = (t1: number, t2: number) =>
+      0.5 * (a.radius * a.radius * (t2 - t1) + a.x * a.radius * (Math.sin(t2) - Math.sin(t1)) - a.y * a.radius * (Math.cos(t2) - Math.cos(t1)))
+    let at = 0
+    for (const [s, e] of spans) {
+      if (s > at) area += arc(at, s)
+      at = Math.max(at, e)
+    }
+    if (at < TWO_PI) area += arc(at, TWO_PI)
   }
   return area
 }

@@ -16,12 +16,13 @@ export const PLYWOOD_DENSITY = {
 
 export interface MetricsInput {
   outline: readonly Point[]
-  /** Through-holes: pockets, access openings, centre and index holes. */
-  holes: readonly Hole[]
+  /** Through-holes: pockets, access openings, centre and index holes, rim fasteners. */
+  holes: readonly Pick<Hole, 'x' | 'y' | 'diameter'>[]
   rabbets: readonly Rabbet[]
   pocketDiameter: number
   thickness: number
   floorGap: number
+  tubeBearing: number
 }
 
 export function plateMetrics(input: MetricsInput): Metrics {
@@ -47,5 +48,6 @@ export function plateMetrics(input: MetricsInput): Metrics {
     weight: volume * 1e-9 * PLYWOOD_DENSITY.value,
     density: { value: PLYWOOD_DENSITY.value, source: PLYWOOD_DENSITY.source },
     floorGap: input.floorGap,
+    tubeBearing: input.tubeBearing,
   }
 }

@@ -25,6 +25,8 @@ const TWO_PI = 2 * Math.PI
 const LOBE_NORM = 6
 /** Wobble harmonics of the valley line: 2 to 5 bumps round the plate. */
 const WOBBLE_HARMONICS = 4
+/** The least valley the schema allows, mm: the wobble never takes the outline nearer the trunk than this. */
+export const VALLEY_MIN = 6
 
 export interface LobeShape {
   index: number
@@ -39,7 +41,21 @@ export interface LobeShape {
 export interface OutlineOptions {
   /** Width of the smooth maximum's blend, mm; the outline stands at most blend/6 proud of the sharp maximum. Default 6 mm + 6 % of the trunk radius. */
   blend?: number
+  /** Radius of the cutter, mm: a lobe's foot is widened where needed so the crotch it makes with the valley line is no tighter than this. Default 0 (no widening). */
+  cutterRadius?: number
 }
+
+/** Start of the blunt profile's fall, as a share of the half-width: flat before, a quintic fall after. */
+const BLUNT_SHOULDER = 0.25
+/** Largest positive second derivative of each profile in t: (1 - t^2)^3 peaks at 4.8 (t^2 = 0.6); the quintic smootherstep at 10/sqrt(3), stretched by 1 / (1 - shoulder)^2. */
+const POINTED_CURL = 4.8
+const BLUNT_CURL = 10 / Math.sqrt(3) / ((1 - BLUNT_SHOULDER) * (1 - BLUNT_SHOULDER))
+/**
+ * Safety factor on the crotch estimate below: the estimate r^2 / r'' ignores
+ * the slope and the wobble, so the foot is made wide enough for this many
+ * cutter radii.
+ */
+const CROTCH_FACTOR = 1.5
 
 export interface OutlineShape {
   /** Outline radius at an angle in radians. Always positive and finite. */
@@ -98,6 +114,7 @@ export function outlineShape(params: PlateParams, clearances: readonly Circle[],
   const { count, reach, width, roundness, irregularity, seed, valley, phase, overrides } = params.lobes
   const random = mulberry32(seed)
   const blend = options.blend ?? 6 + 0.06 * ro
+  const cutterRadius = options.cutterRadius ?? 0
 
   // Drawn first and always in the same order, so changing one lobe never reshuffles the others.
   const wobbleAmp: number[] = []
@@ -107,7 +124,8 @@ export function outlineShape(params: PlateParams, clearances: readonly Circle[],
     wobblePhase.push(random() * TWO_PI)
   }
   const ampSum = wobbleAmp.reduce((s, a) => s + a, 0)
-  const wobbleDepth = 0.4 * irregularity * valley
+  // The wobble swings both ways; capped so the stated valley minimum still holds at its deepest.
+  const wobbleDepth = Math.min(0.4 * irregularity * valley, valley - VALLEY_MIN)
   const baseRadius = ro + valley
   const rot = params.rotation * DEG
 
@@ -122,7 +140,13 @@ export function outlineShape(params: PlateParams, clearances: readonly Circle[],
     const angle = o?.angle !== undefined ? nominal + o.angle * DEG : nominal + (irregularity * spacing * ua) / 6
     const lobeReach = o?.reach ?? reach * (1 + 0.5 * irregularity * ur)
     const lobeWidth = o?.width ?? width * (1 + 0.4 * irregularity * uw)
-    const halfWidth = Math.min(lobeWidth / (2 * baseRadius), 0.98 * Math.PI)
+    // Where a lobe leaves the valley line its outline bends inward with a radius of about
+    // r^2 / r'' (r the foot's radius, r'' = reach * curl / halfWidth^2): widen the foot
+    // until that is at least the cutter's radius (times a margin), so a round bit can follow it.
+    const curl = POINTED_CURL + roundness * (BLUNT_CURL - POINTED_CURL)
+    const footRadius = baseRadius - wobbleDepth
+    const leastHalf = cutterRadius > 0 ? Math.sqrt(Math.max(0, lobeReach) * curl * CROTCH_FACTOR * cutterRadius) / footRadius : 0
+    const halfWidth = Math.min(Math.max(lobeWidth / (2 * baseRadius), leastHalf), 0.98 * Math.PI)
     lobes.push({ index: k, angle, halfWidth, reach: lobeReach })
   }
   // Lobes shorter than a micrometre change nothing visible; dropping them keeps
@@ -135,13 +159,19 @@ export function outlineShape(params: PlateParams, clearances: readonly Circle[],
   const floor = baseRadius - wobbleDepth - blend
   const bulges = clearances.map((c) => bulgeFor(c, floor)).filter((b): b is Bulge => b !== null)
 
+  // Pointed: (1 - t^2)^3. Blunt: flat to the shoulder, then a quintic (C2) fall whose
+  // inward curl at the foot stays bounded, unlike a high power of t.
   function lobeProfile(t: number): number {
     const s = t * t
     const p = 1 - s
     const pointed = p * p * p
-    const s4 = s * s * s * s
-    const r = 1 - s4
-    return pointed + roundness * (r * r * r - pointed)
+    const a = t < 0 ? -t : t
+    let blunt = 1
+    if (a > BLUNT_SHOULDER) {
+      const u = (a - BLUNT_SHOULDER) / (1 - BLUNT_SHOULDER)
+      blunt = 1 - u * u * u * (10 - 15 * u + 6 * u * u)
+    }
+    return pointed + roundness * (blunt - pointed)
   }
 
   const cosRot = Math.cos(rot)

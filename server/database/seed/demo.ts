@@ -18,21 +18,22 @@ const IN = 25.4
 
 /** Three trunks for the show, each with a short history of revisions. */
 export function demoDesigns(): { name: string; sizeLabel: string; revisions: { note: string; by: ShopRole; params: Record<string, unknown> }[] }[] {
-  // A small trunk takes smaller casters: 2-1/2 in wheels under 5 in pans.
+  // Every trunk runs on the default 2 in casters under 4-1/4 in pans, with the caster offset
+  // and the access openings placed so the pans hide under the tube's wall (placeCasters and
+  // placeAccess give these numbers) and the plate carries no finding.
   const small = {
-    tubeDiameter: 10 * IN, casterCount: 3, casterOffset: 6.5 * IN, pocketDiameter: 5 * IN, rotation: 90,
-    caster: { wheelDiameter: 2.5 * IN, swivelLead: 1 * IN, topPlateWidth: 2.25 * IN, topPlateLength: 3 * IN, boltSpacingX: 2.25 * IN, boltSpacingY: 1.5 * IN, racewayDiameter: 1.75 * IN },
-    access: { diameter: 1.75 * IN, offset: 2.5 * IN },
+    tubeDiameter: 12.5 * IN, casterCount: 3, casterOffset: 90.5, rotation: 90,
+    access: { offset: 125.5 },
     lobes: { count: 5, reach: 3 * IN, seed: 7 },
   }
-  const medium = { tubeDiameter: 16 * IN, casterCount: 4, casterOffset: 9.5 * IN, rotation: 45, lobes: { count: 6, reach: 5 * IN, seed: 21 } }
-  const large = { tubeDiameter: 24 * IN, casterCount: 5, casterOffset: 13.5 * IN, rotation: 18, lobes: { count: 7, reach: 7 * IN, seed: 42 } }
+  const medium = { tubeDiameter: 16 * IN, casterCount: 4, casterOffset: 135, rotation: 45, access: { offset: 170 }, lobes: { count: 6, reach: 5 * IN, seed: 21 } }
+  const large = { tubeDiameter: 24 * IN, casterCount: 5, casterOffset: 236.5, rotation: 18, access: { offset: 104.5 }, lobes: { count: 7, reach: 7 * IN, seed: 42 } }
   return [
     {
       name: 'Rowan sapling',
-      sizeLabel: 'Small · 10 in tube',
+      sizeLabel: 'Small · 12 in tube',
       revisions: [
-        { note: 'First layout around the 10 in tube', by: 'designer', params: { ...small, lobes: { ...small.lobes, reach: 2.5 * IN } } },
+        { note: 'First layout around the 12 in tube', by: 'designer', params: { ...small, lobes: { ...small.lobes, reach: 2.5 * IN } } },
         { note: 'Longer roots downstage so it reads from the balcony', by: 'designer', params: small },
       ],
     },
@@ -40,7 +41,7 @@ export function demoDesigns(): { name: string; sizeLabel: string; revisions: { n
       name: 'Hollow oak',
       sizeLabel: 'Medium · 16 in tube',
       revisions: [
-        { note: 'First layout', by: 'designer', params: { ...medium, casterCount: 3, casterOffset: 10 * IN } },
+        { note: 'First layout', by: 'designer', params: { ...medium, casterCount: 3 } },
         { note: 'Four casters: the hollow carries a sandbag', by: 'lead', params: medium },
         { note: 'Pulled one root out toward the bench', by: 'designer', params: { ...medium, lobes: { ...medium.lobes, overrides: [{ index: 2, reach: 7 * IN }] } } },
       ],

@@ -96,7 +96,8 @@ describe('renderCutDxf geometry', () => {
   it('writes round holes as circles of the right diameter (CIRCLE group 40 = radius)', () => {
     const dxf = parse(renderCutDxf(plate, { units: 'in' }))
     const inside = onLayer<ICircleEntity>(dxf, LAYER_INSIDE, 'CIRCLE')
-    const through = plate.holes.filter((h) => h.kind !== 'index')
+    // Routed openings are inside profiles; drilled holes (centre, index) go to the drill layer.
+    const through = plate.holes.filter((h) => h.method === 'routed')
     expect(inside).toHaveLength(through.length)
     for (const h of through) {
       const match = inside.find((c) => Math.abs(c.center.x - h.x / IN) < 1e-6 && Math.abs(c.center.y - h.y / IN) < 1e-6)
@@ -113,9 +114,13 @@ describe('renderCutDxf geometry', () => {
     expect(rabbets).toHaveLength(plate.rabbets.length)
     expect(rabbets[0]!.radius * 2 * IN).toBeCloseTo(plate.rabbets[0]!.diameter, 6)
     const drills = onLayer<ICircleEntity>(dxf, LAYER_DRILL, 'CIRCLE')
-    const bolts = plate.casterMounts.reduce((n, m) => n + m.bolts.length, 0)
-    const index = plate.holes.filter((h) => h.kind === 'index').length
-    expect(drills).toHaveLength(bolts + index)
+    // Centre and index holes register the layers: drilled. The caster bolts go through the pan's
+    // steel, not the plywood, so they are not drilled (they are drawn on the reference layer).
+    const drilled = plate.holes.filter((h) => h.kind === 'index' || h.kind === 'centre')
+    expect(drills).toHaveLength(drilled.length)
+    for (const h of drilled) {
+      expect(drills.some((c) => Math.abs(c.center.x - h.x / IN) < 1e-6 && Math.abs(c.center.y - h.y / IN) < 1e-6 && Math.abs(c.radius * 2 * IN - h.diameter) < 1e-6), h.id).toBe(true)
+    }
     expect(dxf.tables.layer.layers['RP-RABBET-0.375IN']).toBeDefined()
     const mm = parse(renderCutDxf(plate, { units: 'mm' }))
     expect(onLayer(mm, 'RP-RABBET-9.525MM', 'CIRCLE')).toHaveLength(plate.rabbets.length)
@@ -124,9 +129,11 @@ describe('renderCutDxf geometry', () => {
   it('keeps reference marks off the cut layers, and leaves them out on request', () => {
     const withRef = parse(renderCutDxf(plate, { units: 'mm' }))
     const ref = withRef.entities.filter((e) => e.layer === LAYER_REFERENCE)
-    // trunk circle + clocking axis + one outline per caster plate
-    expect(ref).toHaveLength(2 + plate.casterMounts.length)
-    const trunk = onLayer<ICircleEntity>(withRef, LAYER_REFERENCE, 'CIRCLE')
+    // trunk circle + clocking axis + one outline per caster plate + its bolts (through the pan, drawn only)
+    const bolts = plate.casterMounts.reduce((n, m) => n + m.bolts.length, 0)
+    expect(ref).toHaveLength(2 + plate.casterMounts.length + bolts)
+    const trunk = onLayer<ICircleEntity>(withRef, LAYER_REFERENCE, 'CIRCLE').filter((c) => Math.hypot(c.center.x, c.center.y) < 1e-9)
+    expect(trunk).toHaveLength(1)
     expect(trunk[0]!.radius * 2).toBeCloseTo(plate.trunk.diameter, 6)
     const noRef = parse(renderCutDxf(plate, { units: 'mm', includeReference: false }))
     expect(noRef.entities.filter((e) => e.layer === LAYER_REFERENCE)).toHaveLength(0)
@@ -150,7 +157,7 @@ describe('renderCutDxf geometry', () => {
       return `${e.layer} ${e.type} ${JSON.stringify(e)}`
     })
     expect(new Set(keys).size).toBe(keys.length)
-    expect(onLayer(dxf, LAYER_INSIDE, 'CIRCLE')).toHaveLength(plate.holes.filter((h) => h.kind !== 'index').length)
+    expect(onLayer(dxf, LAYER_INSIDE, 'CIRCLE')).toHaveLength(plate.holes.filter((h) => h.method === 'routed').length)
   })
 
   it('mirrors x for cutting from the back, keeping the outline counter-clockwise', () => {

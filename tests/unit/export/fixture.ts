@@ -95,7 +95,7 @@ export function fixturePlate(options: FixtureOptions = {}): Plate {
     const x = offset * Math.cos(rad(angle))
     const y = offset * Math.sin(rad(angle))
     const id = `pocket-${i}`
-    holes.push({ id, kind: 'pocket', x, y, diameter: pocket })
+    holes.push({ id, kind: 'pocket', x, y, diameter: pocket, method: 'routed' })
     rabbets.push({ pocketId: id, x, y, diameter: pocket + 2 * rabbetWidth, depth: rabbetDepth })
     // A 4 x 4.5 in top plate square to the radial line, bolts 3/8 in in from each corner.
     const hw = 57.15
@@ -120,6 +120,7 @@ export function fixturePlate(options: FixtureOptions = {}): Plate {
       span,
       width: (circumference * span) / 360,
       offsetAlongWrap: (circumference * angle) / 360,
+      height: 25.4,
     })
   }
   for (let i = 0; i < casters; i++) {
@@ -130,11 +131,12 @@ export function fixturePlate(options: FixtureOptions = {}): Plate {
       x: 80 * Math.cos(rad(angle)),
       y: 80 * Math.sin(rad(angle)),
       diameter: 76.2,
+      method: 'routed',
     })
   }
-  holes.push({ id: 'centre', kind: 'centre', x: 0, y: 0, diameter: 25.4 })
-  holes.push({ id: 'index-0', kind: 'index', x: R - A - 40, y: 0, diameter: 6.35 })
-  holes.push({ id: 'index-1', kind: 'index', x: -(R - A - 40), y: 0, diameter: 6.35 })
+  holes.push({ id: 'centre', kind: 'centre', x: 0, y: 0, diameter: 25.4, method: 'drill' })
+  holes.push({ id: 'index-0', kind: 'index', x: R - A - 40, y: 0, diameter: 6.35, method: 'drill' })
+  holes.push({ id: 'index-1', kind: 'index', x: -(R - A - 40), y: 0, diameter: 6.35, method: 'drill' })
 
   const area = Math.abs(shoelace(outline)) - holes.filter((h) => h.kind !== 'index').reduce((s, h) => s + (Math.PI * h.diameter ** 2) / 4, 0)
   const xs = outline.map((p) => p[0])
@@ -147,6 +149,7 @@ export function fixturePlate(options: FixtureOptions = {}): Plate {
     outline,
     outlinePath,
     holes,
+    fasteners: [],
     trunk: { x: 0, y: 0, diameter: tube, innerDiameter: tube - 12 },
     rabbets,
     casterMounts,
@@ -166,6 +169,7 @@ export function fixturePlate(options: FixtureOptions = {}): Plate {
       weight: 0,
       density: { value: 538, source: 'fixture' },
       floorGap: 10,
+      tubeBearing: 1,
     },
   }
 }

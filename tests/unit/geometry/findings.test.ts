@@ -1,20 +1,33 @@
 import { describe, expect, it } from 'vitest'
-import { buildPlate } from '../../../geometry/plate'
+import { buildPlate, plateOutlineShape } from '../../../geometry/plate'
 import { plateParamsSchema, type PlateParamsInput } from '../../../geometry/params'
 import { plateFindings, SHEET_MM } from '../../../geometry/checks/findings'
 import { roundFeatures } from '../../../geometry/features/holes'
-import { casterMounts } from '../../../geometry/features/casters'
+import { casterMounts, tubeBearing, tubeNotches } from '../../../geometry/features/casters'
 import { floorStack } from '../../../geometry/checks/floor'
 import { PLYWOOD_DENSITY } from '../../../geometry/metrics/metrics'
 import { presetParams, PRESETS } from '../../../geometry/presets'
+import { threeInch } from './helpers'
 
-const findings = (input: PlateParamsInput) => buildPlate(plateParamsSchema.parse(input)).findings
+// The hand-worked cases below are on the 3 in caster plate (helpers.ts, THREE_INCH).
+const findings = (input: PlateParamsInput) => buildPlate(plateParamsSchema.parse(threeInch(input as Record<string, unknown>))).findings
 const codes = (input: PlateParamsInput) => findings(input).map((f) => f.code)
 
 describe('a sound plate', () => {
-  it.each(['default', ...PRESETS.map((p) => p.id)])('%s has no findings', (id) => {
+  // Every starting shape hides its pans but the slim birch, whose 8-1/2 in tube cannot: the least
+  // offset for its 4-1/4 in pockets to clear the centre hole and each other is 88.9 mm, and a
+  // 66.675 mm pan radius then reaches 155.6 mm against a 107.95 mm tube radius.
+  it.each(['default', ...PRESETS.map((p) => p.id).filter((id) => id !== 'slim-birch')])('%s has no findings', (id) => {
     const params = id === 'default' ? plateParamsSchema.parse({}) : presetParams(id)!
     expect(buildPlate(params).findings).toEqual([])
+  })
+  it('slim-birch has no error, and says why its pans show', () => {
+    const plate = buildPlate(presetParams('slim-birch')!)
+    expect(plate.findings.filter((f) => f.severity === 'error')).toEqual([])
+    const pan = plate.findings.find((f) => f.code === 'pan-visible')!
+    expect(pan.message).toMatch(/too slim/)
+    expect(pan.values!.least).toBeCloseTo(88.9, 6)
+    expect(plate.holes.filter((h) => h.kind === 'index').length).toBeGreaterThanOrEqual(1)
   })
 })
 
@@ -25,8 +38,14 @@ describe('holes and the wood between them', () => {
     const all = findings({ access: { diameter: 152.4, offset: 120 } }).filter((f) => f.code === 'holes-overlap')
     const found = all.filter((f) => f.holeIds![0]!.startsWith('pocket'))
     expect(found.length).toBe(6)
-    // The opening at 270 deg also swallows the index hole at (0, -158.75): 120 + 76.2 > 158.75 - 1.6.
-    expect(all.filter((f) => f.holeIds!.includes('index-1')).map((f) => f.holeIds)).toEqual([['access-1', 'index-1']])
+    // The opening at 270 deg covers the index hole's place at (0, -158.75): 120 + 76.2 > 158.75 - 1.6.
+    // The index hole moves out along the axis instead, to clear the opening by 1/4 in:
+    // 196.2 + 6.35 + 1.5875 = 204.1375 mm, on the search's 0.5 mm steps.
+    expect(all.filter((f) => f.holeIds!.includes('index-1'))).toEqual([])
+    const index1 = buildPlate(plateParamsSchema.parse(threeInch({ access: { diameter: 152.4, offset: 120 } }))).holes.find((h) => h.id === 'index-1')!
+    expect(index1.x).toBeCloseTo(0, 9)
+    expect(-index1.y).toBeGreaterThanOrEqual(204.1375)
+    expect(-index1.y).toBeLessThan(204.1375 + 0.5)
     expect(found[0]!.severity).toBe('error')
     expect(found[0]!.holeIds).toEqual(['pocket-0', 'access-0'])
     expect(found[0]!.field).toBe('access.offset')
@@ -58,8 +77,9 @@ describe('holes and the wood between them', () => {
 
 describe('the edge check itself, on a hand-made outline', () => {
   // buildPlate always grows the outline round its holes, so the edge check is exercised directly.
-  const params = plateParamsSchema.parse({})
+  const params = plateParamsSchema.parse(threeInch())
   const f = roundFeatures(params)
+  const notches = tubeNotches(params, f.rabbets)
   const base = {
     params,
     pockets: f.pockets,
@@ -67,14 +87,19 @@ describe('the edge check itself, on a hand-made outline', () => {
     access: f.access,
     centre: f.centre,
     index: f.index,
+    fasteners: f.fasteners,
     casterMounts: casterMounts(params, f.pockets),
+    notches,
+    tubeBearing: tubeBearing(notches),
     stack: floorStack(params),
+    shape: plateOutlineShape(params),
+    thetas: new Float64Array(4),
     enclosingRadius: 300,
   }
   const square = (half: number): [number, number][] => [[-half, -half], [half, -half], [half, half], [-half, half]]
 
   it('reports pockets cutting a too-small outline as errors', () => {
-    const found = plateFindings({ ...base, outline: square(200) }).filter((x) => x.code === 'hole-cuts-edge')
+    const found = plateFindings({ ...base, outline: square(200) }).filter((x) => x.code === 'hole-cuts-edge' && x.holeIds![0]!.startsWith('pocket'))
     expect(found.map((x) => x.holeIds![0])).toEqual(['pocket-0', 'pocket-1', 'pocket-2'])
   })
 
@@ -128,7 +153,7 @@ describe('weight', () => {
     expect(sheet).toBeCloseTo(28.5, 1)
   })
   it('is net area x thickness less the rabbet rings, times the density', () => {
-    const params = plateParamsSchema.parse({})
+    const params = plateParamsSchema.parse(threeInch())
     const m = buildPlate(params).metrics
     const rings = 3 * Math.PI * ((196.85 / 2) ** 2 - (165.1 / 2) ** 2) * 9.525
     expect(m.volume).toBeCloseTo(m.area * 35.7124 - rings, 3)

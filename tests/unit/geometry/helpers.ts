@@ -198,3 +198,36 @@ export const acceptedParams: fc.Arbitrary<PlateParams> = rawParams
   .map((raw) => plateParamsSchema.safeParse(raw))
   .filter((r) => r.success)
   .map((r) => (r.success ? r.data : plateParamsSchema.parse({})))
+
+/**
+ * A plate on 3 in casters: the round-one hardware (6-1/2 in pockets, 5/8 in
+ * rabbet, 2-1/2 in pans, a 3 in caster 4 in tall with a 2-1/2 x 3-5/8 in top
+ * plate) at a 170 mm offset. The worked examples below were done by hand on
+ * these numbers; the test data owns them so a change of defaults leaves them true.
+ */
+export const THREE_INCH = {
+  casterOffset: 170,
+  pocketDiameter: 165.1,
+  rabbetWidth: 15.875,
+  panDepth: 63.5,
+  caster: {
+    wheelDiameter: 76.2,
+    swivelLead: 31.75,
+    overallHeight: 101.6,
+    treadWidth: 31.75,
+    topPlateWidth: 63.5,
+    topPlateLength: 92.075,
+    boltSpacingX: 73.025,
+    boltSpacingY: 44.45,
+    boltDiameter: 7.9375,
+    racewayDiameter: 50.8,
+  },
+  access: { diameter: 57.15, offset: 100 },
+} as const
+
+/** THREE_INCH with changes on top (nested caster and access fields merged). */
+export function threeInch(input: Record<string, unknown> = {}): Record<string, unknown> {
+  const caster = { ...THREE_INCH.caster, ...(input.caster as object | undefined) }
+  const access = { ...THREE_INCH.access, ...(input.access as object | undefined) }
+  return { ...THREE_INCH, ...input, caster, access }
+}

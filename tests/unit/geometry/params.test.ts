@@ -4,17 +4,41 @@ import { minCasterOffset, paramIssues, plateParamsSchema } from '../../../geomet
 describe('plateParamsSchema', () => {
   it('fills a whole plate from an empty object, nested groups included', () => {
     const p = plateParamsSchema.parse({})
-    expect(p.caster.wheelDiameter).toBe(76.2)
+    expect(p.caster.wheelDiameter).toBe(50.8)
     expect(p.lobes.count).toBe(6)
     expect(p.access.enabled).toBe(true)
+    // Cutting defaults: a 1/4 in bit, 1/2 in sheet margin, a 48 x 96 in sheet (PS 1-19).
+    expect(p.cutting.bitDiameter).toBe(6.35)
+    expect(p.cutting.edgeMargin).toBe(12.7)
+    expect([p.cutting.sheetWidth, p.cutting.sheetLength]).toEqual([1219.2, 2438.4])
+    expect(p.fasteners.count).toBe(4)
+    expect(p.fasteners.boltCircleDiameter).toBeUndefined()
+    expect(p.caster.treadWidth).toBe(19.05)
     expect(paramIssues({})).toEqual([])
   })
 
+  it('still reads params stored before the cutting, fastener and tread fields existed', () => {
+    // A revision saved by the first round: every field it had, none of the new ones.
+    const stored = {
+      tubeDiameter: 317.5, tubeWall: 6.35, casterCount: 3, casterOffset: 170, pocketDiameter: 165.1, rabbetWidth: 15.875, rabbetDepth: 9.525, panDepth: 63.5,
+      caster: { wheelDiameter: 76.2, swivelLead: 31.75, overallHeight: 101.6, topPlateWidth: 63.5, topPlateLength: 92.075, boltSpacingX: 73.025, boltSpacingY: 44.45, boltDiameter: 7.9375, racewayDiameter: 50.8 },
+      rotation: 90, lobes: { count: 6, reach: 110, width: 110, roundness: 0.5, irregularity: 0.35, seed: 7, valley: 25, phase: 0, overrides: [] },
+      access: { enabled: true, diameter: 57.15, offset: 100, snapToHoleSaw: true },
+      centreHoleDiameter: 6.35, indexHoleDiameter: 3.175, minWood: 19.05, layers: 2, sheetThickness: 17.8562, minFloorGap: 6.35,
+    }
+    const p = plateParamsSchema.parse(stored)
+    expect(p.casterOffset).toBe(170)
+    expect(p.caster.wheelDiameter).toBe(76.2)
+    expect(p.caster.treadWidth).toBe(19.05)
+    expect(p.cutting.bitDiameter).toBe(6.35)
+    expect(p.fasteners.count).toBe(4)
+  })
+
   it('fills inner defaults of a group given in part (zod 4 prefault, not default)', () => {
-    const p = plateParamsSchema.parse({ caster: { wheelDiameter: 88.9 }, lobes: { count: 4 } })
-    expect(p.caster.wheelDiameter).toBe(88.9)
-    expect(p.caster.overallHeight).toBe(101.6)
-    expect(p.caster.boltDiameter).toBe(7.9375)
+    const p = plateParamsSchema.parse({ caster: { wheelDiameter: 60 }, lobes: { count: 4 } })
+    expect(p.caster.wheelDiameter).toBe(60)
+    expect(p.caster.overallHeight).toBe(66.675)
+    expect(p.caster.boltDiameter).toBe(6.35)
     expect(p.lobes.reach).toBe(110)
     expect(p.lobes.overrides).toEqual([])
   })
@@ -47,11 +71,11 @@ describe('cross-field rules', () => {
     const p = plateParamsSchema.parse({})
     const least = minCasterOffset(p)
     // pocket radius + rabbet + minimum wood + centre-hole radius, by hand for the defaults:
-    expect(least).toBeCloseTo(165.1 / 2 + 15.875 + 19.05 + 6.35 / 2, 9)
+    expect(least).toBeCloseTo(107.95 / 2 + 12.7 + 19.05 + 6.35 / 2, 9)
     const issues = paramIssues({ casterOffset: least - 1 })
     expect(issues).toHaveLength(1)
     expect(issues[0]!.path).toBe('casterOffset')
-    expect(issues[0]!.message).toMatch(/120\.7 mm/)
+    expect(issues[0]!.message).toMatch(/88\.9 mm/)
     expect(paramIssues({ casterOffset: least + 0.001 })).toEqual([])
   })
 

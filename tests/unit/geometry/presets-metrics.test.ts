@@ -26,8 +26,13 @@ describe('deriveForTube', () => {
     expect(big.pocketDiameter).toBe(oak.pocketDiameter)
     expect(big.caster).toEqual(oak.caster)
     expect(big.lobes.seed).toBe(oak.lobes.seed)
-    // Pans stay tucked under the wall by the same amount: the offset moves with the tube radius.
-    expect(big.casterOffset - big.tubeDiameter / 2).toBeCloseTo(oak.casterOffset - oak.tubeDiameter / 2, 2)
+    // The pans are tucked under the new wall: rabbet edge (offset + 53.975 + 12.7) 1.5 to 2 mm inside
+    // the outside radius (placeCasters rounds the offset down to 0.5 mm).
+    const edge = big.casterOffset + big.pocketDiameter / 2 + big.rabbetWidth
+    expect(big.tubeDiameter / 2 - edge).toBeGreaterThanOrEqual(1.5)
+    expect(big.tubeDiameter / 2 - edge).toBeLessThan(2)
+    expect(buildPlate(big).findings.filter((f) => f.severity === 'error')).toEqual([])
+    expect(buildPlate(big).findings.map((f) => f.code)).not.toContain('pan-visible')
   })
 
   it('keeps the lobes in the same places, so the family reads as one design', () => {

@@ -104,3 +104,38 @@ describe('formatting', () => {
     )
   })
 })
+
+describe('thousands separators and feet-and-inches slips', () => {
+  // 1 in = 25.4 mm exactly (NIST SP 811). A comma before three digits groups thousands (common
+  // English practice); it is never read as a decimal mark there.
+  it.each([
+    ['1,219 mm', 1219],
+    ['1,219', 1219],
+    ['1,219.5 mm', 1219.5],
+    ['12,000 mm', 12000],
+    ['1,000 in', 25400],
+  ])('reads %s as %d mm', (text, mm) => {
+    const r = parseLength(text)
+    expect(r.ok).toBe(true)
+    if (r.ok) expect(r.mm).toBeCloseTo(mm, 9)
+  })
+  it('still reads a decimal comma that cannot be a thousands group', () => {
+    const r = parseLength('0,125 in')
+    expect(r.ok && r.mm).toBeCloseTo(3.175, 9)
+  })
+  it.each(['1,2,3 mm', '1,22.5 mm'])('refuses %s with a message about commas', (text) => {
+    const r = parseLength(text)
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.message).toMatch(/comma/)
+  })
+  it(`refuses 1' 15" instead of taking it as 27 in, and says how to write it`, () => {
+    const r = parseLength(`1' 15"`)
+    expect(r.ok).toBe(false)
+    if (!r.ok) {
+      expect(r.message).toMatch(/less than 12/)
+      expect(r.message).toContain(`2' 3"`)
+    }
+    const fine = parseLength(`1' 11-7/8"`)
+    expect(fine.ok && fine.mm).toBeCloseTo(23.875 * 25.4, 9)
+  })
+})
