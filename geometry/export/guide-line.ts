@@ -144,6 +144,23 @@ class SegmentGrid {
   }
 }
 
+/** Largest gap between the cut-line points tested for reach, mm: a missed stretch is placed to within it. */
+const MAX_STEP = 1
+
+/** The ring with points added along long edges; its own vertices are kept exactly. */
+function densify(ring: Point[], step: number): Point[] {
+  const out: Point[] = []
+  const n = ring.length
+  for (let i = 0; i < n; i++) {
+    const a = ring[i]!
+    const b = ring[(i + 1) % n]!
+    out.push(a)
+    const pieces = Math.ceil(Math.hypot(b[0] - a[0], b[1] - a[1]) / step)
+    for (let k = 1; k < pieces; k++) out.push([a[0] + ((b[0] - a[0]) * k) / pieces, a[1] + ((b[1] - a[1]) * k) / pieces])
+  }
+  return out
+}
+
 function runLength(points: Point[], closed: boolean): number {
   let sum = 0
   const n = points.length
@@ -194,7 +211,8 @@ export function guidePattern(plate: Pick<Plate, 'outline' | 'holes'>, options: G
 
   const reach = d + tolerance
   const grid = new SegmentGrid(rings, Math.max(reach, 1))
-  const check = (cut: Point[], holeId: string | null): UnreachableRun[] => {
+  const check = (ring: Point[], holeId: string | null): UnreachableRun[] => {
+    const cut = densify(ring, MAX_STEP)
     const reached = cut.map(([x, y]) => grid.within(x, y, reach))
     return reached.every(Boolean) ? [] : missedRuns(cut, reached, holeId)
   }
