@@ -278,8 +278,10 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
     const missed = pattern.unreachable
     if (missed.length > 0) {
       const total = missed.reduce((s, r) => s + r.length, 0)
+      // A total to tape-measure precision: 1/8 in or 1 mm.
+      const step = units === 'in' ? 3.175 : 1
       notes.push(
-        `The bushing cannot reach ${missed.length} stretch${missed.length === 1 ? '' : 'es'} of the cut line (${formatShopLength(total, units)} in all, hatched and labelled): a root, tip or web there is narrower than the pattern allows. Cut them by hand to the line or trim them with a flush-trim bit; a smaller bushing reaches more.`,
+        `The bushing cannot reach ${missed.length} stretch${missed.length === 1 ? '' : 'es'} of the cut line (about ${formatShopLength(Math.max(step, Math.round(total / step) * step), units)} in all, hatched and labelled): a root, tip or web there is narrower than the pattern allows. Cut them by hand to the line or trim them with a flush-trim bit; a smaller bushing reaches more.`,
       )
     }
   }
