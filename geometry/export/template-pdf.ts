@@ -294,6 +294,7 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
     avoid: [
       { shape: plate.outline, weight: 10 },
       ...routerLines.map((shape) => ({ shape, weight: 10 })),
+      ...(pattern ? pattern.rings.filter((r) => signedArea(r) < 0).map((shape) => ({ shape, weight: 3 })) : []),
       ...plate.holes.map((h) => ({ shape: ring(h.x, h.y, h.diameter / 2), weight: 3 })),
       ...(layer === 'bottom' ? [] : plate.rabbets).map((r) => ({ shape: ring(r.x, r.y, r.diameter / 2), weight: 2 })),
       ...plate.casterMounts.map((m) => ({ shape: m.corners, weight: 1 })),
