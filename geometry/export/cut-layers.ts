@@ -5,6 +5,7 @@
 import type { Plate, Point } from '../types'
 import { assertExportUnits, fromMm, type ExportUnits } from './units'
 import { counterClockwise, flattenPath, simplifyClosed } from './polyline'
+import { assertPlateLayer, MirrorRabbetError, type PlateLayer } from './layers'
 
 /** The outline polygon's guaranteed chord error (the geometry contract), mm. */
 export const OUTLINE_CHORD_ERROR = 0.1
@@ -27,8 +28,14 @@ export interface CutOptions {
   units: ExportUnits
   /** Trunk circle, clocking axis and caster plate outlines on a layer never cut. Default true. */
   includeReference?: boolean
-  /** Flip x, to cut the plate from its back face. Default false. */
+  /**
+   * Flip x, to cut the plate from its back face. Default false. Refused
+   * (MirrorRabbetError) for a file that carries rabbets: they are cut into the
+   * top face, which faces the table when the layer is cut from the back.
+   */
   mirror?: boolean
+  /** 'top' (with rabbets), 'bottom' (no rabbets) or 'all' (one file for both). Default 'all'. */
+  layer?: PlateLayer
   /**
    * Largest distance between the written outline and the true curve, mm,
    * whatever the output units. Default 0.1 (the outline polygon as built);
@@ -56,6 +63,7 @@ export interface CutLayer {
 
 export interface CutDrawing {
   units: ExportUnits
+  layer: PlateLayer
   layers: CutLayer[]
   /** Extent of every entity, output units. */
   bounds: { minX: number; minY: number; maxX: number; maxY: number }
@@ -77,10 +85,13 @@ export function normaliseCutOptions(options: CutOptions): Required<CutOptions> {
   if (!Number.isFinite(chordTolerance) || chordTolerance <= 0) {
     throw new RangeError(`chordTolerance must be a positive length in mm, got ${chordTolerance}.`)
   }
+  const layer = options.layer ?? 'all'
+  assertPlateLayer(layer)
   return {
     units: options.units,
     includeReference: options.includeReference ?? true,
     mirror: options.mirror ?? false,
+    layer,
     chordTolerance,
   }
 }
@@ -117,6 +128,8 @@ function entityKey(e: CutEntity): string {
 /** Build the layered cut drawing in output units. */
 export function buildCutDrawing(plate: Plate, options: CutOptions): CutDrawing {
   const o = normaliseCutOptions(options)
+  const withRabbets = o.layer !== 'bottom' && plate.rabbets.length > 0
+  if (o.mirror && withRabbets) throw new MirrorRabbetError()
   const k = o.units === 'in' ? 1 / 25.4 : 1
   const sx = o.mirror ? -1 : 1
   const pt = (x: number, y: number): Point => [sx * x * k, y * k]
@@ -157,7 +170,8 @@ export function buildCutDrawing(plate: Plate, options: CutOptions): CutDrawing {
       add(holeSawLayerName(h.sawSize ?? h.diameter, o.units), 'reference', circle(h.x, h.y, h.diameter))
     }
   }
-  const rabbets = [...plate.rabbets].sort((a, b) => a.depth - b.depth)
+  // The bottom layer has no rabbets: the pan rims sit in the top layer only.
+  const rabbets = withRabbets ? [...plate.rabbets].sort((a, b) => a.depth - b.depth) : []
   for (const r of rabbets) {
     add(rabbetLayerName(r.depth, o.units), 'rabbet', circle(r.x, r.y, r.diameter), Number(fromMm(r.depth, o.units).toFixed(3)))
   }
@@ -200,5 +214,5 @@ export function buildCutDrawing(plate: Plate, options: CutOptions): CutDrawing {
       } else for (const p of e.points) grow(p[0], p[1])
     }
   }
-  return { units: o.units, layers: [...layers.values()], bounds: { minX, minY, maxX, maxY } }
+  return { units: o.units, layer: o.layer, layers: [...layers.values()], bounds: { minX, minY, maxX, maxY } }
 }

@@ -27,7 +27,23 @@ export {
   type TileContent,
   type SheetTransform,
 } from './tiling'
-export { offsetPolygon } from './polyline'
+export {
+  guideLine,
+  guidePattern,
+  guideOffset,
+  routedOpenings,
+  GUIDE_TOLERANCE,
+  type GuideOptions,
+  type GuidePattern,
+  type UnreachableRun,
+} from './guide-line'
+export {
+  PLATE_LAYERS,
+  PLATE_LAYER_LABEL,
+  PLATE_LAYER_SUFFIX,
+  MirrorRabbetError,
+  type PlateLayer,
+} from './layers'
 export {
   buildCutDrawing,
   rabbetLayerName,
@@ -52,6 +68,7 @@ export {
   renderTemplatePdf,
   planTemplate,
   bushingOffset,
+  UNREACHABLE_LABEL,
   TEMPLATE_STYLES,
   type TemplateOptions,
   type BushingOptions,

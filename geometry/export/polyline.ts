@@ -1,6 +1,6 @@
-// Polygon helpers the exporters share: orientation, a guide-bushing offset,
-// simplification to a chord tolerance and flattening of the outline's cubic
-// path. Plain arrays of [x, y] in millimetres.
+// Polygon helpers the exporters share: orientation, simplification to a chord
+// tolerance and flattening of the outline's cubic path. Plain arrays of [x, y]
+// in millimetres. Offsets live in geometry/math/offset.ts (clipper2-ts).
 
 import type { Point } from '../types'
 
@@ -16,74 +16,6 @@ export function signedArea(points: Point[]): number {
 
 export function counterClockwise(points: Point[]): Point[] {
   return signedArea(points) < 0 ? [...points].reverse() : points
-}
-
-/**
- * Grow a closed polygon outward by `distance` (shrink it for a negative one)
- * by moving every vertex along the mean of its two edge normals, mitred so
- * straight runs keep their true offset. Meant for the smooth, star-shaped
- * outlines of plates and a bushing offset of a few millimetres: where a tight
- * bend would fold the offset line back on itself (a concave bend when
- * growing, a convex one when shrinking), the folded vertices are dropped.
- */
-export function offsetPolygon(polygon: Point[], distance: number): Point[] {
-  if (!Number.isFinite(distance)) {
-    throw new RangeError(`Offset distance must be a number, got ${distance}.`)
-  }
-  const pts = counterClockwise(polygon)
-  const n = pts.length
-  if (distance === 0 || n < 3) return pts.map((p) => [p[0], p[1]] as Point)
-  const normals: Point[] = []
-  for (let i = 0; i < n; i++) {
-    const a = pts[i]!
-    const b = pts[(i + 1) % n]!
-    const dx = b[0] - a[0]
-    const dy = b[1] - a[1]
-    const len = Math.hypot(dx, dy) || 1
-    normals.push([dy / len, -dx / len])
-  }
-  const out: Point[] = []
-  for (let i = 0; i < n; i++) {
-    const n0 = normals[(i - 1 + n) % n]!
-    const n1 = normals[i]!
-    let mx = n0[0] + n1[0]
-    let my = n0[1] + n1[1]
-    const ml = Math.hypot(mx, my)
-    if (ml < 1e-12) {
-      mx = n1[0]
-      my = n1[1]
-    } else {
-      mx /= ml
-      my /= ml
-    }
-    // Mitre length d / cos(half turn), capped so a sharp corner cannot throw a spike.
-    const cos = Math.max(mx * n1[0] + my * n1[1], 0.5)
-    const p = pts[i]!
-    out.push([p[0] + (mx * distance) / cos, p[1] + (my * distance) / cos])
-  }
-  return removeFolds(pts, out)
-}
-
-/** Drop offset vertices whose edge runs against the original edge (a fold in a tight concave bend). */
-function removeFolds(original: Point[], offset: Point[]): Point[] {
-  let keep = original.map((_, i) => i)
-  for (let pass = 0; pass < 8; pass++) {
-    const next: number[] = []
-    const m = keep.length
-    for (let k = 0; k < m; k++) {
-      const i = keep[k]!
-      const j = keep[(k + 1) % m]!
-      const o0 = offset[i]!
-      const o1 = offset[j]!
-      const p0 = original[i]!
-      const p1 = original[j]!
-      const dot = (o1[0] - o0[0]) * (p1[0] - p0[0]) + (o1[1] - o0[1]) * (p1[1] - p0[1])
-      if (dot > 0) next.push(i)
-    }
-    if (next.length === keep.length || next.length < 3) break
-    keep = next
-  }
-  return keep.map((i) => offset[i]!)
 }
 
 function pointSegmentDistance(p: Point, a: Point, b: Point): number {

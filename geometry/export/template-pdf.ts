@@ -2,9 +2,11 @@
 // cut the plate from paper, at exactly 1:1, tiled over ordinary sheets.
 
 import type { Plate, Point } from '../types'
+import { signedArea } from '../math/polygon'
 import type { FontBytes } from './fonts'
 import { COLOURS, Ops, type LineStyle } from './pdf-ops'
-import { offsetPolygon } from './polyline'
+import { guideOffset, guidePattern, type GuidePattern, type UnreachableRun } from './guide-line'
+import { assertPlateLayer, PLATE_LAYER_LABEL, type PlateLayer } from './layers'
 import { renderTiledPdf, type LegendEntry, type TemplateMeta, type TiledDrawing } from './tiled-pdf'
 import { tilePlate, type Orientation, type PaperName, type Tiling } from './tiling'
 import { assertExportUnits, formatShopLength, type ExportUnits } from './units'
@@ -33,6 +35,8 @@ export interface TemplateOptions {
    * for each routed opening that far outside its circle. Default none.
    */
   bushing?: BushingOptions
+  /** 'top' draws the rabbets, 'bottom' leaves them out, 'all' is one template for both. Default 'all'. */
+  layer?: PlateLayer
   /** Default: design name `Plate`, no size, no revision, today's date. */
   meta?: TemplateMeta
   /** Font file bytes (WOFF or TTF). Default: read on the server from @fontsource/ibm-plex-sans. */
@@ -49,19 +53,17 @@ export const TEMPLATE_STYLES = {
   mount: { colour: COLOURS.mount, width: 0.35 },
   notch: { colour: COLOURS.notch, width: 1.4 },
   router: { colour: COLOURS.router, width: 0.45, dash: [5, 2] },
+  unreachable: { colour: COLOURS.warn, width: 0.9, dash: [1.2, 1.2] },
   centre: { colour: COLOURS.ink, width: 0.2 },
 } satisfies Record<string, LineStyle>
 
 /** Offset for a guide bushing: (bushing outside diameter - bit diameter) / 2 (router pattern practice). */
 export function bushingOffset(bushing: BushingOptions): number {
-  const { bushingDiameter, bitDiameter } = bushing
-  if (!(Number.isFinite(bushingDiameter) && Number.isFinite(bitDiameter)) || bitDiameter <= 0 || bushingDiameter <= bitDiameter) {
-    throw new RangeError(
-      `The bushing (${bushingDiameter} mm) must be wider than the bit (${bitDiameter} mm), both above zero.`,
-    )
-  }
-  return (bushingDiameter - bitDiameter) / 2
+  return guideOffset({ bushing: bushing.bushingDiameter, bit: bushing.bitDiameter })
 }
+
+/** What a bushing cannot follow is said in words on the sheet, not only by a line style. */
+export const UNREACHABLE_LABEL = 'bushing cannot reach: cut by hand or flush-trim'
 
 const TEXT = 3.2
 const SMALL = 2.6
@@ -83,7 +85,51 @@ function readableAngle(deg: number): number {
   return a > 90 && a < 270 ? a - 180 : a
 }
 
-function drawPlateBody(ops: Ops, plate: Plate, units: ExportUnits, routerLine: Point[] | null, offset: number): void {
+/** Hatch ticks on the waste side (right of travel) of a missed run, and its label beside the middle. */
+function drawUnreachable(ops: Ops, run: UnreachableRun): void {
+  const S = TEMPLATE_STYLES
+  const pts = run.points
+  const closed = run.closed
+  ops.style(S.unreachable).polygon(pts, closed).stroke()
+  const ticks: [number, number, number, number][] = []
+  const step = 2.5
+  let carry = 0
+  const n = pts.length
+  let mid: { x: number; y: number; nx: number; ny: number } | null = null
+  let walked = 0
+  for (let i = 0; i < (closed ? n : n - 1); i++) {
+    const a = pts[i]!
+    const b = pts[(i + 1) % n]!
+    const len = Math.hypot(b[0] - a[0], b[1] - a[1])
+    if (len === 0) continue
+    const ux = (b[0] - a[0]) / len
+    const uy = (b[1] - a[1]) / len
+    // Right of travel is the waste: outside a counter-clockwise outline, inside a clockwise opening.
+    const nx = uy
+    const ny = -ux
+    if (!mid && walked + len >= run.length / 2) {
+      const t = run.length / 2 - walked
+      mid = { x: a[0] + ux * t, y: a[1] + uy * t, nx, ny }
+    }
+    walked += len
+    let t = carry
+    for (; t <= len; t += step) {
+      const x = a[0] + ux * t
+      const y = a[1] + uy * t
+      ticks.push([x, y, x + 3 * nx + 1.5 * ux, y + 3 * ny + 1.5 * uy])
+    }
+    carry = t - len
+  }
+  ops.style({ colour: COLOURS.warn, width: 0.3 })
+  for (const [x0, y0, x1, y1] of ticks) ops.line(x0, y0, x1, y1)
+  ops.stroke()
+  if (mid) {
+    const angle = readableAngle((Math.atan2(mid.ny, mid.nx) * 180) / Math.PI - 90)
+    ops.text(UNREACHABLE_LABEL, mid.x + 6 * mid.nx, mid.y + 6 * mid.ny, SMALL, { align: 'center', angle, colour: COLOURS.warn })
+  }
+}
+
+function drawPlateBody(ops: Ops, plate: Plate, units: ExportUnits, pattern: GuidePattern | null, layer: PlateLayer): void {
   const len = (mm: number) => formatShopLength(mm, units)
   const S = TEMPLATE_STYLES
 
@@ -144,7 +190,8 @@ function drawPlateBody(ops: Ops, plate: Plate, units: ExportUnits, routerLine: P
     })
   }
 
-  for (const r of plate.rabbets) {
+  // The bottom layer has no rabbets: drawing them would invite cutting one.
+  for (const r of layer === 'bottom' ? [] : plate.rabbets) {
     const rr = r.diameter / 2
     ops.style(S.rabbet).circle(r.x, r.y, rr).stroke()
     ops.text(`rabbet Ø ${len(r.diameter)}, ${len(r.depth)} deep`, r.x, r.y - rr + 1.6, SMALL, {
@@ -169,16 +216,19 @@ function drawPlateBody(ops: Ops, plate: Plate, units: ExportUnits, routerLine: P
     else ops.text(label, h.x + r * 0.75 + 1.5, h.y + r * 0.75 + 1.5, TEXT)
   }
 
-  if (routerLine) {
-    ops.style(S.router).polygon(routerLine).stroke()
-    const [tx, ty] = topmost(routerLine)
-    for (const h of plate.holes) {
-      if (h.kind === 'pocket' || h.kind === 'access') ops.style(S.router).circle(h.x, h.y, h.diameter / 2 + offset).stroke()
+  if (pattern) {
+    ops.style(S.router)
+    for (const ring of pattern.rings) ops.polygon(ring)
+    ops.stroke()
+    const outside = pattern.rings.filter((r) => signedArea(r) > 0)
+    if (outside.length > 0) {
+      const [tx, ty] = topmost(outside.flat())
+      ops.text(`router pattern line, ${len(pattern.offset)} inside the cut line`, tx, ty - 4, SMALL, {
+        align: 'center',
+        colour: COLOURS.router,
+      })
     }
-    ops.text(`router pattern line, ${len(offset)} inside the cut line`, tx, ty - 4, SMALL, {
-      align: 'center',
-      colour: COLOURS.router,
-    })
+    for (const run of pattern.unreachable) drawUnreachable(ops, run)
   }
 
   ops.style(S.cut).polygon(plate.outline).stroke()
@@ -194,41 +244,59 @@ export interface PlateTemplate {
 export function planTemplate(plate: Plate, options: TemplateOptions): PlateTemplate {
   const units = options.units ?? 'in'
   assertExportUnits(units)
-  const offset = options.bushing ? bushingOffset(options.bushing) : 0
-  const routerLine = options.bushing ? offsetPolygon(plate.outline, -offset) : null
+  const layer = options.layer ?? 'all'
+  assertPlateLayer(layer)
+  const pattern = options.bushing
+    ? guidePattern(plate, { bushing: options.bushing.bushingDiameter, bit: options.bushing.bitDiameter })
+    : null
+  const routerLines = pattern ? pattern.rings.filter((r) => signedArea(r) > 0) : []
   const tiling = tilePlate(plate, {
     paper: options.paper,
     ...(options.orientation ? { orientation: options.orientation } : {}),
     ...(options.margin !== undefined ? { margin: options.margin } : {}),
     ...(options.overlap !== undefined ? { overlap: options.overlap } : {}),
-    extraOutlines: routerLine ? [routerLine] : [],
+    extraOutlines: routerLines,
   })
   const S = TEMPLATE_STYLES
   const legend: LegendEntry[] = [
     { label: 'cut line (outside)', style: S.cut },
     { label: 'hole: cut, centre cross, diameter', style: S.hole },
-    { label: 'rabbet ring round a pocket', style: S.rabbet },
+    ...(layer === 'bottom' ? [] : [{ label: 'rabbet ring round a pocket', style: S.rabbet }]),
     { label: 'drill: index and bolt holes', style: S.drill },
     { label: 'caster plate outline', style: S.mount },
     { label: 'tube notch on the trunk circle', style: S.notch },
     { label: 'reference: trunk circle, clocking axis', style: S.reference },
   ]
-  if (routerLine) legend.push({ label: 'router pattern line (guide bushing)', style: S.router })
-  const notes = routerLine
-    ? [
-        `Router pattern for a guide bushing: make the pattern to the long-dashed lines, ${formatShopLength(offset, units)} ((bushing - bit) / 2) inside the outside cut line and outside each routed opening; the bushing rides the pattern and the bit cuts on the cut lines.`,
-      ]
-    : []
+  if (pattern) legend.push({ label: 'router pattern line (guide bushing)', style: S.router })
+  if (pattern && pattern.unreachable.length > 0) legend.push({ label: 'bushing cannot reach (hatched): cut by hand', style: S.unreachable })
+  const notes: string[] = []
+  if (layer !== 'all') notes.push(`This template is for the ${PLATE_LAYER_LABEL[layer]}.`)
+  if (pattern) {
+    notes.push(
+      `Router pattern for a guide bushing: make the pattern to the long-dashed lines, ${formatShopLength(pattern.offset, units)} ((bushing - bit) / 2) inside the outside cut line and outside each routed opening; the bushing rides the pattern and the bit cuts on the cut lines.`,
+    )
+    const missed = pattern.unreachable
+    if (missed.length > 0) {
+      const total = missed.reduce((s, r) => s + r.length, 0)
+      // A total to tape-measure precision: 1/8 in or 1 mm.
+      const step = units === 'in' ? 3.175 : 1
+      notes.push(
+        `The bushing cannot reach ${missed.length} stretch${missed.length === 1 ? '' : 'es'} of the cut line (about ${formatShopLength(Math.max(step, Math.round(total / step) * step), units)} in all, hatched and labelled): a root, tip or web there is narrower than the pattern allows. Cut them by hand to the line or trim them with a flush-trim bit; a smaller bushing reaches more.`,
+      )
+    }
+  }
+  const title = layer === 'all' ? 'Plate template' : `Plate template, ${layer} layer`
   const drawing: TiledDrawing = {
-    title: 'Plate template',
-    content: { bounds: tiling.content, polygons: [plate.outline, ...(routerLine ? [routerLine] : [])] },
-    drawBody: (ops) => drawPlateBody(ops, plate, units, routerLine, offset),
+    title,
+    content: { bounds: tiling.content, polygons: [plate.outline, ...routerLines] },
+    drawBody: (ops) => drawPlateBody(ops, plate, units, pattern, layer),
     mapShapes: [plate.outline],
     avoid: [
       { shape: plate.outline, weight: 10 },
-      ...(routerLine ? [{ shape: routerLine, weight: 10 }] : []),
+      ...routerLines.map((shape) => ({ shape, weight: 10 })),
+      ...(pattern ? pattern.rings.filter((r) => signedArea(r) < 0).map((shape) => ({ shape, weight: 3 })) : []),
       ...plate.holes.map((h) => ({ shape: ring(h.x, h.y, h.diameter / 2), weight: 3 })),
-      ...plate.rabbets.map((r) => ({ shape: ring(r.x, r.y, r.diameter / 2), weight: 2 })),
+      ...(layer === 'bottom' ? [] : plate.rabbets).map((r) => ({ shape: ring(r.x, r.y, r.diameter / 2), weight: 2 })),
       ...plate.casterMounts.map((m) => ({ shape: m.corners, weight: 1 })),
       { shape: ring(plate.trunk.x, plate.trunk.y, plate.trunk.diameter / 2), weight: 1 },
     ],

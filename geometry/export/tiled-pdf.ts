@@ -378,8 +378,9 @@ function drawSheet(
     metaLine(settings.meta, date),
     `sheet ${index} of ${tiling.printed}  ·  full size 1:1`,
   ]
-  const blockW = Math.max(mapSize[0], 100, labelWidth + 10 + Math.max(...info.map((line) => ops.textWidth(line, 7.5))))
-  const blockH = 38 + mapSize[1] + 26
+  // Room right of the map for the upright scale bars, and below it for the level ones.
+  const blockW = Math.max(mapSize[0] + VERTICAL_BARS_WIDTH, 100, labelWidth + 10 + Math.max(...info.map((line) => ops.textWidth(line, 7.5))))
+  const blockH = 38 + Math.max(mapSize[1] + 26, 72 + 4)
   const left = wx + o + 10
   const right = wx + ww - o - 10 - blockW
   const top = wy + wh - o - 10
@@ -425,7 +426,20 @@ function drawSheet(
   const mm = 25 * k
   ops.style({ colour: COLOURS.ink, width: 0.6 }).line(bx, s2, bx + mm, s2).line(bx, s2 - 3, bx, s2 + 3).line(bx + mm, s2 - 3, bx + mm, s2 + 3).stroke()
   ops.text('25 mm', bx + mm + 4, s2 - 2.5, 7, { colour: COLOURS.muted })
+
+  // The same two bars upright: a printer that scales one direction only shows it here.
+  const vx = bx + blockW - VERTICAL_BARS_WIDTH + 10
+  const vTop = by
+  const upright = (x: number, length: number, label: string) => {
+    ops.style({ colour: COLOURS.ink, width: 0.6 }).line(x, vTop, x, vTop - length).line(x - 3, vTop, x + 3, vTop).line(x - 3, vTop - length, x + 3, vTop - length).stroke()
+    ops.text(label, x + 9, vTop - length / 2, 7, { angle: 90, align: 'center', colour: COLOURS.muted })
+  }
+  upright(vx, 72, '1 in')
+  upright(vx + 18, mm, '25 mm')
 }
+
+/** Width kept right of the location map for the two upright scale bars, pt. */
+const VERTICAL_BARS_WIDTH = 40
 
 function locationFrame(tiling: Tiling, mapSize: [number, number]): MapFrame {
   return mapFrame(tiling, 0, 0, mapSize[0], mapSize[1])

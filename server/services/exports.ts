@@ -2,8 +2,10 @@ import { z } from 'zod'
 import { buildPlate, plateParamsSchema, type Plate } from '../../geometry'
 import {
   renderTemplatePdf, renderTubeWrapPdf, renderCutDxf, renderCutSvg, exportFileName, PAPER_NAMES,
-  type PaperName, type FontBytes,
+  PLATE_LAYERS, PLATE_LAYER_SUFFIX, MirrorRabbetError,
+  type PaperName, type FontBytes, type PlateLayer,
 } from '../../geometry/export'
+import { invalid } from '../utils/validation'
 
 // Query options of the export routes. Lengths arrive in mm; every bound is a
 // real one (a printer margin over 30 mm or an overlap over 50 mm is a typo).
@@ -11,6 +13,7 @@ const flag = z.enum(['true', 'false', '1', '0']).transform(v => v === 'true' || 
 const mm = (max: number) => z.coerce.number({ error: 'Must be a number of millimetres' }).min(0, 'Must not be negative').max(max, `Must be at most ${max} mm`)
 const paper = z.enum(PAPER_NAMES as [PaperName, ...PaperName[]], { error: `Paper must be one of: ${PAPER_NAMES.join(', ')}` })
 const units = z.enum(['in', 'mm'], { error: 'Units must be in or mm' })
+const layer = z.enum(PLATE_LAYERS, { error: `Layer must be one of: ${PLATE_LAYERS.join(', ')}` }).default('all')
 
 export const templateQuerySchema = z.object({
   paper: paper.default('letter'),
@@ -20,6 +23,7 @@ export const templateQuerySchema = z.object({
   units: units.default('in'),
   bushing: mm(60).optional(),
   bit: mm(50).optional(),
+  layer,
 }).superRefine((q, ctx) => {
   if ((q.bushing === undefined) !== (q.bit === undefined)) {
     ctx.addIssue({ code: 'custom', path: [q.bushing === undefined ? 'bushing' : 'bit'], message: 'Give both the bushing and the bit diameter, or neither' })
@@ -42,6 +46,7 @@ export const cutQuerySchema = z.object({
   units: units.default('in'),
   reference: flag.default(true),
   mirror: flag.default(false),
+  layer,
 })
 
 export interface RevisionForExport {
@@ -72,8 +77,11 @@ function meta(revision: RevisionForExport) {
   }
 }
 
-export function fileName(revision: RevisionForExport, ext: string): string {
-  return exportFileName({ designName: revision.designName, sizeLabel: revision.sizeLabel ?? undefined, revision: revision.number }, ext)
+/** `oak-medium-r3.dxf`, or `oak-medium-r3-bottom.dxf` for one layer of the plate. */
+export function fileName(revision: RevisionForExport, ext: string, plateLayer: PlateLayer = 'all'): string {
+  const name = exportFileName({ designName: revision.designName, sizeLabel: revision.sizeLabel ?? undefined, revision: revision.number }, ext)
+  const suffix = PLATE_LAYER_SUFFIX[plateLayer]
+  return suffix ? name.replace(/(\.[a-z]+)$/, `${suffix}$1`) : name
 }
 
 export function templatePdf(plate: Plate, revision: RevisionForExport, q: z.output<typeof templateQuerySchema>, font: FontBytes) {
@@ -84,6 +92,7 @@ export function templatePdf(plate: Plate, revision: RevisionForExport, q: z.outp
     margin: q.margin,
     units: q.units,
     bushing: q.bushing !== undefined && q.bit !== undefined ? { bushingDiameter: q.bushing, bitDiameter: q.bit } : undefined,
+    layer: q.layer,
     meta: meta(revision),
     font,
   })
@@ -93,10 +102,21 @@ export function tubeWrapPdf(plate: Plate, revision: RevisionForExport, q: z.outp
   return renderTubeWrapPdf(plate, { paper: q.paper, orientation: q.orientation, overlap: q.overlap, margin: q.margin, units: q.units, height: q.height, meta: meta(revision), font })
 }
 
+/** A refusal that depends on the plate, not only on the query: a 422 on the field that asked for it. */
+function refuseMirroredRabbets<T>(write: () => T): T {
+  try {
+    return write()
+  }
+  catch (err: unknown) {
+    if (err instanceof MirrorRabbetError) invalid({ [err.field]: err.message }, 'This file cannot be mirrored')
+    throw err
+  }
+}
+
 export function cutDxf(plate: Plate, q: z.output<typeof cutQuerySchema>): string {
-  return renderCutDxf(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror })
+  return refuseMirroredRabbets(() => renderCutDxf(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer }))
 }
 
 export function cutSvg(plate: Plate, q: z.output<typeof cutQuerySchema>): string {
-  return renderCutSvg(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror })
+  return refuseMirroredRabbets(() => renderCutSvg(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer }))
 }

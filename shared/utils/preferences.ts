@@ -16,6 +16,8 @@ export const exportPrefsSchema = z.object({
   margin: z.number().min(0).max(30).default(6.35),
   includeReference: z.boolean().default(true),
   mirror: z.boolean().default(false),
+  /** Which plate layer templates and cut files are for: top (with rabbets), bottom, or all in one. */
+  layer: z.enum(['top', 'bottom', 'all']).default('all'),
   /** Router guide bushing and bit diameters in mm, or null for a flush-trim pattern. */
   bushing: z.object({ bushingDiameter: z.number().positive().max(60), bitDiameter: z.number().positive().max(50) }).nullable().default(null),
 })

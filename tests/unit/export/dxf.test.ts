@@ -160,9 +160,9 @@ describe('renderCutDxf geometry', () => {
     expect(onLayer(dxf, LAYER_INSIDE, 'CIRCLE')).toHaveLength(plate.holes.filter((h) => h.method === 'routed').length)
   })
 
-  it('mirrors x for cutting from the back, keeping the outline counter-clockwise', () => {
-    const normal = parse(renderCutDxf(plate, { units: 'mm' }))
-    const mirrored = parse(renderCutDxf(plate, { units: 'mm', mirror: true }))
+  it('mirrors x for cutting the bottom layer from the back, keeping the outline counter-clockwise', () => {
+    const normal = parse(renderCutDxf(plate, { units: 'mm', layer: 'bottom' }))
+    const mirrored = parse(renderCutDxf(plate, { units: 'mm', mirror: true, layer: 'bottom' }))
     const key = (p: Point) => `${p[0].toFixed(4)} ${p[1].toFixed(4)}`
     const a = new Set(vertices(outlineOf(normal)).map(([x, y]) => key([-x, y])))
     const b = vertices(outlineOf(mirrored))

@@ -11,7 +11,9 @@ import { plateToPage, type PaperName } from '../../../geometry/export/tiling'
 import { loadTemplateFontNode } from '../../../geometry/export/fonts-node'
 import type { Point } from '../../../geometry/types'
 import { buildPlate, plateParamsSchema, PRESETS } from '../../../geometry/index'
-import { fixturePlate } from './fixture'
+import { EndType, JoinType, areaD, inflatePathsD } from 'clipper2-ts'
+import { distanceToPolygon, fixturePlate, shoelace } from './fixture'
+import { bodyStream, pageStream, strokedPaths, type Pt } from './pdf-read'
 
 const PT_PER_MM = 72 / 25.4 // ISO 32000-1, 8.3.2.3; 25.4 mm per inch
 const meta = { designName: 'Test oak', sizeLabel: '12 in', revision: 4, date: '2025-03-01' }
@@ -129,12 +131,13 @@ describe('renderTemplatePdf sheets', () => {
   it('adds the router pattern line only when a bushing is given, inside the outline, on the same sheets', () => {
     // The bushing rides the pattern and the bit cuts (bushing - bit) / 2 beyond it, so the pattern
     // for an outside profile is that much smaller (router pattern practice, common practice).
-    const small = fixturePlate({ radius: 300, amplitude: 0 })
+    // A 600 mm round fixture with pockets well clear of the edge: nothing out of the bushing's reach.
+    const small = fixturePlate({ radius: 300, amplitude: 0, casterOffset: 150, pocketDiameter: 100 })
     const plain = planTemplate(small, { paper: 'letter' })
     const routed = planTemplate(small, { paper: 'letter', bushing: { bushingDiameter: 30, bitDiameter: 10 } })
     expect(routed.tiling.content.maxX).toBeCloseTo(plain.tiling.content.maxX, 6)
     expect(routed.tiling.printed).toBe(plain.tiling.printed)
-    expect(routed.drawing.legend.length).toBe(plain.drawing.legend.length + 1)
+    expect(routed.drawing.legend.map((l) => l.label)).toEqual([...plain.drawing.legend.map((l) => l.label), 'router pattern line (guide bushing)'])
   })
 
   it('rejects a bad paper or unit', async () => {
@@ -147,7 +150,7 @@ describe('picture check', () => {
   const pdftoppm = '/usr/bin/pdftoppm'
   const out = join(process.cwd(), 'test-results', 'export')
 
-  it.skipIf(!existsSync(pdftoppm))('renders the cover and a content sheet to PNG (poppler-utils pdftoppm)', async () => {
+  it('renders the cover and a content sheet to PNG (poppler-utils pdftoppm)', async () => {
     mkdirSync(out, { recursive: true })
     const plate = buildPlate(plateParamsSchema.parse(PRESETS[0]!.input))
     const bytes = await renderTemplatePdf(plate, {
@@ -174,3 +177,122 @@ describe('picture check', () => {
     expect(existsSync(join(out, `sheet-${target.label}.png`))).toBe(true)
   })
 })
+
+describe('picture check of the pattern line (poppler-utils pdftoppm)', () => {
+  const pdftoppm = '/usr/bin/pdftoppm'
+  const out = join(process.cwd(), 'test-results', 'export')
+
+  it('renders the banyan starting shape with a 1-1/4 in bushing: a sheet with a root out of reach, and the cover', async () => {
+    mkdirSync(out, { recursive: true })
+    const plate = buildPlate(plateParamsSchema.parse(PRESETS.find((p) => p.id === 'banyan-sprawl')!.input))
+    const options = { paper: 'letter' as const, bushing: { bushingDiameter: 31.75, bitDiameter: 6.35 } }
+    const pdf = join(out, 'template-banyan-bushing.pdf')
+    writeFileSync(pdf, await renderTemplatePdf(plate, { ...options, meta: { designName: 'Banyan bushing check', date: '2025-03-01' }, font }))
+    const { tiling } = planTemplate(plate, options)
+    const printed = tiling.sheets.filter((s) => !s.empty)
+    // The tip of the longest root: the outline point furthest from the centre, narrower than 2 x 12.7 mm there.
+    const tip = plate.outline.reduce((a, b) => (Math.hypot(...b) > Math.hypot(...a) ? b : a))
+    const holding = printed.findIndex((s) => s.window.minX < tip[0] && tip[0] < s.window.maxX && s.window.minY < tip[1] && tip[1] < s.window.maxY)
+    expect(holding).toBeGreaterThanOrEqual(0)
+    execFileSync(pdftoppm, ['-png', '-r', '100', '-f', String(holding + 2), '-l', String(holding + 2), '-singlefile', pdf, join(out, 'banyan-root-sheet')])
+    execFileSync(pdftoppm, ['-png', '-r', '60', '-f', '1', '-l', '1', '-singlefile', pdf, join(out, 'banyan-cover')])
+    // 100 dpi of a Letter sheet in either orientation: 850 x 1100 px.
+    const png = readFileSync(join(out, 'banyan-root-sheet.png'))
+    expect([png.readUInt32BE(16), png.readUInt32BE(20)].sort()).toEqual([1100, 850])
+  }, 60_000)
+})
+
+describe('the pattern line read back from the PDF (pdf-lib, node:zlib)', () => {
+  // A lobed fixture, its pockets clear of the edge by more than twice either offset.
+  const plate = fixturePlate({ radius: 400, amplitude: 60, lobes: 3, casterOffset: 200 })
+  /** Closed subpaths stroked with the pattern line's long dash. */
+  async function patternRings(bushingDiameter: number, bitDiameter: number): Promise<Pt[][]> {
+    const bytes = await renderTemplatePdf(plate, { paper: 'tabloid', bushing: { bushingDiameter, bitDiameter }, meta, font })
+    const paths = strokedPaths(bodyStream(await PDFDocument.load(bytes)))
+    return paths.filter((p) => p.dash === '[5 2] 0').flatMap((p) => p.subpaths.filter((s) => s.closed).map((s) => s.points))
+  }
+  /** clipper2-ts called here on its own: the outline offset inward by d with round joins. */
+  function clipperArea(d: number): number {
+    const out = inflatePathsD([plate.outline.map(([x, y]) => ({ x, y }))], -d, JoinType.Round, EndType.Polygon, 2, 3)
+    return out.reduce((s, p) => s + areaD(p), 0)
+  }
+
+  it.each([
+    [15.875, 12.7, 1.5875, '5/8 in bushing, 1/2 in bit'],
+    [31.75, 6.35, 12.7, '1-1/4 in bushing, 1/4 in bit'],
+  ])('bushing %s mm, bit %s mm: the pattern lies (bushing - bit) / 2 = %s mm inside the cut line (%s)', async (bushing, bit, d) => {
+    const rings = await patternRings(bushing, bit)
+    // One outside ring and one ring round each pocket and access opening.
+    const routed = plate.holes.filter((h) => h.kind === 'pocket' || h.kind === 'access')
+    expect(rings).toHaveLength(1 + routed.length)
+    const outside = rings.reduce((a, b) => (Math.abs(shoelace(b)) > Math.abs(shoelace(a)) ? b : a))
+    for (const p of outside) {
+      const at = distanceToPolygon(p, plate.outline)
+      // Coordinates are written to 0.001 mm: the distance holds to 0.1 mm (the guide-line contract).
+      expect(at).toBeGreaterThan(d - 0.1)
+      expect(at).toBeLessThan(d + 0.1)
+    }
+    expect(Math.abs(Math.abs(shoelace(outside)) - clipperArea(d)) / clipperArea(d)).toBeLessThan(1e-4)
+    // Each opening's pattern is its circle grown by d (the bushing rides inside it).
+    for (const h of routed) {
+      const ring = rings.find((r) => r.every(([x, y]) => Math.hypot(x - h.x, y - h.y) < h.diameter / 2 + d + 1))
+      expect(ring, h.id).toBeDefined()
+      for (const [x, y] of ring!) expect(Math.abs(Math.hypot(x - h.x, y - h.y) - (h.diameter / 2 + d))).toBeLessThan(0.02)
+    }
+  })
+
+  it('a bigger bushing moves the line further in: areas differ as clipper2-ts says', async () => {
+    const near = await patternRings(15.875, 12.7)
+    const far = await patternRings(31.75, 6.35)
+    const area = (rings: Pt[][]) => Math.max(...rings.map((r) => Math.abs(shoelace(r))))
+    expect(area(near) - area(far)).toBeCloseTo(clipperArea(1.5875) - clipperArea(12.7), -1)
+    expect(area(near)).toBeGreaterThan(area(far))
+  })
+
+  it('on the banyan starting shape with a 2 in bushing and 1/4 in bit, every stretch the pattern misses is hatched (its 1/2 in root tips are tighter than the 7/8 in offset)', { timeout: 60_000 }, async () => {
+    const banyan = buildPlate(plateParamsSchema.parse(PRESETS.find((p) => p.id === 'banyan-sprawl')!.input))
+    const bytes = await renderTemplatePdf(banyan, { paper: 'tabloid', bushing: { bushingDiameter: 50.8, bitDiameter: 6.35 }, meta, font })
+    const paths = strokedPaths(bodyStream(await PDFDocument.load(bytes)))
+    const pattern = paths.filter((p) => p.dash === '[5 2] 0').flatMap((p) => p.subpaths.map((s) => s.points))
+    const hatched = paths.filter((p) => p.dash === '[1.2 1.2] 0').flatMap((p) => p.subpaths.map((s) => s.points))
+    // Points of the cut line further than (50.8 - 6.35) / 2 + 0.1 mm from every pattern line: the bushing cannot bring the bit to them.
+    const missed = banyan.outline.filter((p) => Math.min(...pattern.map((r) => distanceToPolygon(p, r))) > 22.225 + 0.1)
+    expect(missed.length).toBeGreaterThan(0)
+    for (const p of missed) {
+      const near = Math.min(...hatched.map((run) => distanceToOpen(p, run)))
+      expect(near, `cut point ${p} is out of reach but not hatched`).toBeLessThan(0.01)
+    }
+  })
+})
+
+describe('scale bars', () => {
+  it('every content sheet has a 1 in and a 25 mm bar both level and upright (72 pt and 70.866 pt, ISO 32000-1 8.3.2.3)', async () => {
+    const plate = fixturePlate({ radius: 400, amplitude: 60 })
+    const doc = await PDFDocument.load(await renderTemplatePdf(plate, { paper: 'letter', meta, font }))
+    const sheets = doc.getPages().slice(1)
+    expect(sheets.length).toBeGreaterThan(1)
+    const mm25 = 25 * PT_PER_MM
+    for (const page of sheets) {
+      const segments = strokedPaths(pageStream(doc, page)).flatMap((p) => p.subpaths).filter((s) => s.points.length === 2)
+      const level = (len: number) => segments.some(({ points: [a, b] }) => Math.abs(a![1] - b![1]) < 1e-6 && Math.abs(Math.abs(b![0] - a![0]) - len) < 0.01)
+      const upright = (len: number) => segments.some(({ points: [a, b] }) => Math.abs(a![0] - b![0]) < 1e-6 && Math.abs(Math.abs(b![1] - a![1]) - len) < 0.01)
+      expect(level(72)).toBe(true)
+      expect(level(mm25)).toBe(true)
+      expect(upright(72)).toBe(true)
+      expect(upright(mm25)).toBe(true)
+    }
+  })
+})
+
+function distanceToOpen(p: Point | Pt, run: Pt[]): number {
+  let best = Infinity
+  for (let i = 0; i + 1 < run.length; i++) {
+    const a = run[i]!
+    const b = run[i + 1]!
+    const dx = b[0] - a[0]
+    const dy = b[1] - a[1]
+    const t = Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / (dx * dx + dy * dy || 1)))
+    best = Math.min(best, Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy))
+  }
+  return best
+}

@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   const query = queryWith(event, templateQuerySchema)
   const { revision, plate } = await revisionPlate(event, member)
   const pdf = await templatePdf(plate, revision, query, await templateFont())
-  return sendFile(event, pdf, 'application/pdf', fileName(revision, 'pdf'))
+  return sendFile(event, pdf, 'application/pdf', fileName(revision, 'pdf', query.layer))
 })
