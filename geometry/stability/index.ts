@@ -1,0 +1,11 @@
+// Shop math: weight, tipping, push, counterweight and caster loads.
+export { unitSchema, COUNTERWEIGHT_MATERIALS, PUSH_ANALOGY, KG_PER_LB } from './unit-params'
+export type { UnitParams, UnitParamsInput, CounterweightMaterial } from './unit-params'
+export { unitStability, plateCentroid, STANDARD_GRAVITY, ROLLING_RESISTANCE } from './stability'
+export type { UnitInput, UnitStability, WeightPart } from './stability'
+export { supportPolygon, tipping, floorTouch } from './support'
+export type { Support, SupportEdge, Tipping } from './support'
+export { blockMass, blockPassage, blockPasses, layoutBlocks } from './counterweight'
+export type { BlockSize, BlockLayout, BlockSpot } from './counterweight'
+export { analyseUnit, stabilityFindings, resolveLoad, METRIC_FORMAT, N_PER_LBF } from './analyse'
+export type { UnitAnalysis, StabilityFinding, Formatters, LoadBreakdown } from './analyse'
