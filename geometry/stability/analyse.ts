@@ -8,7 +8,7 @@ import type { Finding, Plate } from '../types'
 import { blockMass, blockPassage, layoutBlocks, materialDensity, type BlockLayout } from './counterweight'
 import { supportPolygon, tipping } from './support'
 import { STANDARD_GRAVITY, unitStability, type UnitInput, type UnitStability } from './stability'
-import { COUNTERWEIGHT_MATERIALS, KG_PER_LB, unitSchema, type UnitParams } from './unit-params'
+import { COUNTERWEIGHT_MATERIALS, unitSchema, type UnitParams } from './unit-params'
 
 export interface StabilityFinding extends Finding {
   /** The figures behind the message, in kg, mm, degrees and newtons. */
@@ -26,9 +26,6 @@ export const METRIC_FORMAT: Formatters = {
   mass: (kg) => `${kg.toFixed(1)} kg`,
   force: (n) => `${Math.round(n)} N`,
 }
-
-/** Newtons in a pound-force: 0.45359237 kg x 9.80665 m/s2, exact by definition. */
-export const N_PER_LBF = KG_PER_LB * STANDARD_GRAVITY
 
 export interface LoadBreakdown {
   /** kg standing on the plate and its centre of mass above the floor, mm. */

@@ -54,6 +54,9 @@ export interface BlockLayout {
   y: number
 }
 
+/** Grid phases tried, as fractions of a block: a quarter step finds room between pans and openings that a centred grid misses. */
+const PHASES: readonly (readonly [number, number])[] = [0, 0.25, 0.5, 0.75].flatMap((a) => [0, 0.25, 0.5, 0.75].map((b) => [a, b] as const))
+
 interface Keep {
   x: number
   y: number
@@ -70,7 +73,7 @@ function rectMissesCircle(cx: number, cy: number, hw: number, hh: number, k: Kee
  * Lays blocks flat (largest face down) in a square grid on the plate's top
  * face, inside the tube's inside wall and clear of the pans (which rise into
  * the tube) and of the access openings (which must stay open to reach the
- * caster bolts). Both footprint turns and both grid phases are tried; the
+ * caster bolts). Both footprint turns and sixteen grid phases are tried; the
  * one holding most wins. A simple shop layout, not an optimum packing.
  */
 export function layoutBlocks(plate: Pick<Plate, 'trunk' | 'rabbets' | 'holes'>, block: BlockSize, count: number, maxLayers: number): BlockLayout {
@@ -83,14 +86,14 @@ export function layoutBlocks(plate: Pick<Plate, 'trunk' | 'rabbets' | 'holes'>, 
   ]
   let best: { x: number; y: number; w: number; h: number }[] = []
   for (const [w, h] of [[long, mid], [mid, long]] as const) {
-    for (const phase of [0, 0.5]) {
+    for (const [px, py] of PHASES) {
       const cells: { x: number; y: number; w: number; h: number }[] = []
       const nx = Math.ceil(inner / w) + 1
       const ny = Math.ceil(inner / h) + 1
       for (let i = -nx; i <= nx; i++) {
         for (let j = -ny; j <= ny; j++) {
-          const cx = (i + phase) * w
-          const cy = (j + phase) * h
+          const cx = (i + px) * w
+          const cy = (j + py) * h
           const far = Math.hypot(Math.abs(cx) + w / 2, Math.abs(cy) + h / 2)
           if (far > inner) continue
           if (!keep.every((k) => rectMissesCircle(cx, cy, w / 2, h / 2, k))) continue
