@@ -86,7 +86,7 @@ export const unitSchema = z.object({
   /** Casters, pans and their bolts, kg per caster: about 2 kg for a 3 in caster in a steel pan (from memory). */
   hardwarePerCaster: kg(50, 2),
   /** Height of the push to check, mm (default from the analogy: 1.5 m). */
-  pushHeight: mm(0, 10000, PUSH_ANALOGY.height),
+  pushHeight: mm(10, 10000, PUSH_ANALOGY.height),
   /** Push to check: this fraction of the weight, at most `pushMax` newtons (13 % and 100 N by the analogy). */
   pushFraction: z.number().finite().min(0).max(1).default(PUSH_ANALOGY.fraction),
   pushMax: z.number().finite().min(0).max(10000).default(PUSH_ANALOGY.maxNewtons),
