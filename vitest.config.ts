@@ -14,6 +14,8 @@ export default defineConfig({
           include: ['tests/unit/**/*.test.ts'],
           environment: 'node',
           setupFiles: ['tests/unit/fast-check.setup.ts'],
+          // A shared 2-core machine under load runs the property tests several times slower.
+          testTimeout: 30_000,
         },
       },
       await defineVitestProject({
@@ -21,6 +23,8 @@ export default defineConfig({
           name: 'nuxt',
           include: ['tests/nuxt/**/*.test.ts'],
           environment: 'nuxt',
+          // Booting the Nuxt environment cold took over the 10 s default under load.
+          hookTimeout: 60_000,
         },
       }),
       {

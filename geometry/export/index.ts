@@ -83,3 +83,4 @@ export {
   type WrapNotch,
   type TubeWrap,
 } from './tube-wrap-pdf'
+export { renderBuildSheetPdf, chooseScale, scaleLabel, type BuildSheetOptions, type BuildSheetMeta } from './build-sheet-pdf'

@@ -1,0 +1,344 @@
+// The build sheet: two pages a carpenter works from. Page one draws the plate
+// to a stated scale with its main dimensions and the caster orientation;
+// page two lists the cut list, the hardware, the build steps in order and the
+// shop math with its cautions. Written in the reader's units.
+
+import fontkit from '@pdf-lib/fontkit'
+import { PDFDocument, PDFName, type PDFFont } from 'pdf-lib'
+import type { Plate, Point } from '../types'
+import { MM_PER_INCH, formatInches, formatMillimetres } from '../units'
+import { analyseUnit, type UnitAnalysis } from '../stability/analyse'
+import { COUNTERWEIGHT_MATERIALS } from '../stability/unit-params'
+import { formatAngle, formatForce, formatMass } from '../stability/format'
+import { STABILITY_CAUTIONS } from '../stability/cautions'
+import { resolveFontBytes, unpackWoff, type FontBytes } from './fonts'
+import { COLOURS, Ops, type Rgb } from './pdf-ops'
+import { PT_PER_MM, type ExportUnits } from './units'
+
+const FONT = 'F1'
+
+/** A length as the carpenter measures it: inches to the nearest 1/16 (a tape's marks), millimetres to the nearest 1. */
+export function sheetLength(mm: number, units: ExportUnits): string {
+  return units === 'in' ? formatInches(mm, { denominator: 16 }).replace(/"$/, ' in') : formatMillimetres(mm, { step: 1 })
+}
+
+export interface BuildSheetMeta {
+  designName: string
+  sizeLabel?: string
+  revision: number
+  /** YYYY-MM-DD. */
+  date: string
+  author?: string | null
+  note?: string
+}
+
+export interface BuildSheetOptions {
+  units: ExportUnits
+  /** Letter with inches, A4 with millimetres unless given. */
+  paper?: 'letter' | 'a4'
+  meta: BuildSheetMeta
+  font?: FontBytes
+}
+
+/** Page sizes, pt: Letter 8.5 x 11 in (ASME Y14.1), A4 210 x 297 mm (ISO 216). */
+const PAGES = { letter: [612, 792], a4: [595.28, 841.89] } as const
+const MARGIN = 36
+
+/** Scales a shop reads off a rule: 1:s. Inch scales are the architect's (so many inches to the foot). */
+const SCALES = { in: [2, 4, 8, 12, 16, 24, 48, 96], mm: [2, 5, 10, 20, 25, 50, 100] } as const
+
+export function chooseScale(width: number, height: number, boxW: number, boxH: number, units: ExportUnits): number {
+  const list = SCALES[units]
+  for (const s of list) {
+    if ((width * PT_PER_MM) / s <= boxW && (height * PT_PER_MM) / s <= boxH) return s
+  }
+  return list[list.length - 1]!
+}
+
+export function scaleLabel(s: number, units: ExportUnits): string {
+  if (units === 'mm') return `Scale 1:${s}`
+  return `Scale 1:${s} (${sheetLength((12 * MM_PER_INCH) / s, 'in')} = 1 ft)`
+}
+
+class Page {
+  y: number
+  constructor(
+    readonly ops: Ops,
+    readonly width: number,
+    readonly height: number,
+  ) {
+    this.y = height - MARGIN
+  }
+
+  /** Words wrapped to `width` pt; returns the lines. */
+  wrap(text: string, size: number, width: number): string[] {
+    const lines: string[] = []
+    let line = ''
+    for (const word of text.split(/\s+/)) {
+      const next = line ? `${line} ${word}` : word
+      if (line && this.ops.textWidth(next, size) > width) {
+        lines.push(line)
+        line = word
+      } else line = next
+    }
+    if (line) lines.push(line)
+    return lines
+  }
+
+  para(text: string, size = 8.5, x = MARGIN, width = this.width - 2 * MARGIN, colour: Rgb = COLOURS.ink): void {
+    for (const l of this.wrap(text, size, width)) {
+      this.ops.text(l, x, this.y - size, size, { colour })
+      this.y -= size * 1.3
+    }
+  }
+
+  heading(text: string, x = MARGIN): void {
+    this.y -= 6
+    this.ops.text(text, x, this.y - 11, 11, { colour: COLOURS.accent })
+    this.y -= 16
+  }
+
+  /** Rows of cells at the given column offsets; the first row in the muted colour. */
+  table(rows: string[][], columns: number[], size = 8.5, x = MARGIN): void {
+    const widths = columns.map((c, i) => (columns[i + 1] ?? this.width - 2 * MARGIN) - c - 6)
+    rows.forEach((row, r) => {
+      const cells = row.map((cell, i) => this.wrap(cell, size, widths[i]!))
+      const lines = Math.max(...cells.map((c) => c.length))
+      cells.forEach((c, i) => c.forEach((l, k) => this.ops.text(l, x + columns[i]!, this.y - size - k * size * 1.25, size, { colour: r === 0 ? COLOURS.muted : COLOURS.ink })))
+      this.y -= lines * size * 1.25 + 3
+      if (r === 0) {
+        this.ops.style({ colour: COLOURS.tint, width: 0.6 }).line(x, this.y + 1.5, this.width - MARGIN, this.y + 1.5).stroke()
+      }
+    })
+  }
+}
+
+function header(page: Page, meta: BuildSheetMeta, pageNo: number, units: ExportUnits): void {
+  const { ops, width } = page
+  ops.text('Build sheet', MARGIN, page.y - 16, 16, { colour: COLOURS.accent })
+  const title = `${meta.designName}${meta.sizeLabel ? ` (${meta.sizeLabel})` : ''}`
+  ops.text(title, MARGIN + 110, page.y - 16, 13)
+  ops.text(`Page ${pageNo} of 2`, width - MARGIN, page.y - 12, 8, { align: 'right', colour: COLOURS.muted })
+  page.y -= 30
+  const line = `Revision r${meta.revision} · ${meta.date} · drawn by ${meta.author ?? 'unknown'} · sizes in ${units === 'in' ? 'inches' : 'millimetres'}${meta.note ? ` · ${meta.note}` : ''}`
+  page.para(line, 8.5, MARGIN, width - 2 * MARGIN, COLOURS.muted)
+  ops.style({ colour: COLOURS.accent, width: 0.8 }).line(MARGIN, page.y - 2, width - MARGIN, page.y - 2).stroke()
+  page.y -= 8
+}
+
+interface Frame {
+  /** Plate mm to page pt. */
+  x: (mm: number) => number
+  y: (mm: number) => number
+  k: number
+}
+
+function frameFor(plate: Plate, box: { x: number; y: number; w: number; h: number }, scale: number): Frame {
+  const b = plate.metrics.bounds
+  const k = PT_PER_MM / scale
+  const cx = box.x + box.w / 2 - ((b.minX + b.maxX) / 2) * k
+  const cy = box.y + box.h / 2 - ((b.minY + b.maxY) / 2) * k
+  return { x: (mm) => cx + mm * k, y: (mm) => cy + mm * k, k }
+}
+
+function polygon(ops: Ops, f: Frame, pts: readonly Point[]): Ops {
+  return ops.polygon(pts.map(([x, y]) => [f.x(x), f.y(y)] as Point))
+}
+
+function dimension(ops: Ops, x0: number, y0: number, x1: number, y1: number, label: string, vertical: boolean): void {
+  ops.style({ colour: COLOURS.ink, width: 0.5 }).line(x0, y0, x1, y1)
+  const t = 3
+  if (vertical) ops.line(x0 - t, y0, x0 + t, y0).line(x1 - t, y1, x1 + t, y1)
+  else ops.line(x0, y0 - t, x0, y0 + t).line(x1, y1 - t, x1, y1 + t)
+  ops.stroke()
+  if (vertical) ops.text(label, x0 + 5, (y0 + y1) / 2, 8, { angle: 90, align: 'center' })
+  else ops.text(label, (x0 + x1) / 2, y0 - 10, 8, { align: 'center' })
+}
+
+function drawPlate(page: Page, plate: Plate, a: UnitAnalysis, units: ExportUnits, box: { x: number; y: number; w: number; h: number }): void {
+  const { ops } = page
+  const L = (mm: number) => sheetLength(mm, units)
+  // Room for the dimension lines below and to the right.
+  const scale = chooseScale(plate.metrics.width, plate.metrics.height, box.w - 40, box.h - 40, units)
+  const f = frameFor(plate, { x: box.x, y: box.y + 20, w: box.w - 30, h: box.h - 20 }, scale)
+  const b = plate.metrics.bounds
+
+  ops.style({ colour: COLOURS.reference, width: 0.5, dash: [4, 2] }).circle(f.x(0), f.y(0), (plate.trunk.diameter / 2) * f.k).stroke()
+  ops.style({ colour: COLOURS.reference, width: 0.3, dash: [1.5, 1.5] }).circle(f.x(0), f.y(0), (plate.trunk.innerDiameter / 2) * f.k).stroke()
+  for (const s of a.layout.spots.filter((s) => s.layer === 0)) {
+    ops.fillColour(COLOURS.tint)
+    polygon(ops, f, s.corners).fill()
+  }
+  ops.style({ colour: COLOURS.cut, width: 1 })
+  polygon(ops, f, plate.outline).stroke()
+  ops.style({ colour: COLOURS.rabbet, width: 0.6 })
+  for (const r of plate.rabbets) ops.circle(f.x(r.x), f.y(r.y), (r.diameter / 2) * f.k)
+  ops.stroke()
+  ops.style({ colour: COLOURS.hole, width: 0.7 })
+  for (const h of plate.holes) ops.circle(f.x(h.x), f.y(h.y), Math.max(0.6, (h.diameter / 2) * f.k))
+  ops.stroke()
+  ops.style({ colour: COLOURS.mount, width: 0.5 })
+  for (const m of plate.casterMounts) polygon(ops, f, m.corners)
+  ops.stroke()
+  const line = a.stability.tippingLine
+  if (line) {
+    ops.style({ colour: COLOURS.warn, width: 1, dash: [5, 2] }).line(f.x(line[0][0]), f.y(line[0][1]), f.x(line[1][0]), f.y(line[1][1])).stroke()
+    const mx = (line[0][0] + line[1][0]) / 2
+    const my = (line[0][1] + line[1][1]) / 2
+    ops.text('tipping line', f.x(mx) + 3, f.y(my) + 3, 7, { colour: COLOURS.warn })
+  }
+  ops.style({ colour: COLOURS.warn, width: 0.6 }).cross(f.x(a.stability.centreOfMass.x), f.y(a.stability.centreOfMass.y), 4).stroke()
+
+  dimension(ops, f.x(b.minX), f.y(b.minY) - 12, f.x(b.maxX), f.y(b.minY) - 12, `overall ${L(plate.metrics.width)}`, false)
+  dimension(ops, f.x(b.maxX) + 12, f.y(b.minY), f.x(b.maxX) + 12, f.y(b.maxY), `overall ${L(plate.metrics.height)}`, true)
+  ops.text(scaleLabel(scale, units), box.x, box.y + box.h - 8, 8.5, { colour: COLOURS.muted })
+  // A scale bar, so a reader can check the print.
+  const bar = units === 'in' ? 12 * MM_PER_INCH : 100
+  const bx = box.x
+  const by = box.y + box.h - 20
+  ops.style({ colour: COLOURS.ink, width: 1 }).line(bx, by, bx + bar * f.k, by).line(bx, by - 2, bx, by + 2).line(bx + bar * f.k, by - 2, bx + bar * f.k, by + 2).stroke()
+  ops.text(units === 'in' ? '1 ft at this scale' : '100 mm at this scale', bx + bar * f.k + 4, by - 3, 7, { colour: COLOURS.muted })
+}
+
+function casterDiagram(page: Page, plate: Plate, box: { x: number; y: number; w: number; h: number }): void {
+  const { ops } = page
+  const p = plate.params
+  const reach = p.casterOffset + Math.max(p.caster.topPlateLength, p.caster.topPlateWidth) / 2 + p.caster.swivelLead + p.caster.wheelDiameter / 2
+  const k = Math.min(box.w, box.h - 20) / 2 / reach
+  const cx = box.x + box.w / 2
+  const cy = box.y + (box.h - 20) / 2
+  const X = (mm: number) => cx + mm * k
+  const Y = (mm: number) => cy + mm * k
+  ops.style({ colour: COLOURS.reference, width: 0.5, dash: [3, 2] }).circle(cx, cy, p.casterOffset * k).stroke()
+  plate.casterMounts.forEach((m, i) => {
+    const pocket = plate.holes.find((h) => h.id === m.pocketId)
+    if (!pocket) return
+    const a = (m.angle * Math.PI) / 180
+    ops.style({ colour: COLOURS.reference, width: 0.5 }).line(cx, cy, X(pocket.x + Math.cos(a) * 30), Y(pocket.y + Math.sin(a) * 30)).stroke()
+    ops.style({ colour: COLOURS.mount, width: 0.9 }).polygon(m.corners.map(([x, y]) => [X(x), Y(y)] as Point)).stroke()
+    ops.style({ colour: COLOURS.muted, width: 0.4, dash: [1.5, 1.5] }).circle(X(pocket.x), Y(pocket.y), (p.caster.swivelLead + p.caster.wheelDiameter / 2) * k).stroke()
+    ops.style({ colour: COLOURS.ink, width: 0.6 }).cross(X(pocket.x), Y(pocket.y), 2.5).stroke()
+    const lx = X(pocket.x + Math.cos(a) * (p.caster.topPlateLength / 2 + 25))
+    const ly = Y(pocket.y + Math.sin(a) * (p.caster.topPlateLength / 2 + 25))
+    ops.text(`C${i + 1} ${Math.round(((m.angle % 360) + 360) % 360)}°`, lx, ly - 3, 7, { align: 'center' })
+  })
+  ops.style({ colour: COLOURS.ink, width: 0.6 }).cross(cx, cy, 4).stroke()
+  ops.text('Caster orientation: top plates square to their radial lines', box.x, box.y + box.h - 8, 8.5, { colour: COLOURS.muted })
+}
+
+function firstPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptions): void {
+  header(page, o.meta, 1, o.units)
+  const L = (mm: number) => sheetLength(mm, o.units)
+  const p = plate.params
+  const drawH = page.y - MARGIN - 250
+  drawPlate(page, plate, a, o.units, { x: MARGIN, y: page.y - drawH, w: page.width - 2 * MARGIN, h: drawH })
+  page.y -= drawH + 8
+  const colW = (page.width - 2 * MARGIN) / 2
+  const top = page.y
+  page.heading('Main dimensions')
+  const access = plate.holes.find((h) => h.kind === 'access')
+  const index = plate.holes.filter((h) => h.kind === 'index')
+  page.table([
+    ['what', 'size'],
+    ['Overall', `${L(plate.metrics.width)} × ${L(plate.metrics.height)}`],
+    ['Tube (outside, measured)', `${L(p.tubeDiameter)}, wall ${L(p.tubeWall)}`],
+    ['Caster offset (centre to pocket)', `${L(p.casterOffset)}, ${p.casterCount} casters from ${p.rotation}°`],
+    ['Pockets', `${L(p.pocketDiameter)}, rabbet ${L(p.rabbetWidth)} wide × ${L(p.rabbetDepth)} deep`],
+    ['Access openings', access ? `${plate.holes.filter((h) => h.kind === 'access').length} × ${L(access.diameter)} at ${L(Math.hypot(access.x, access.y))} from centre` : 'none'],
+    ['Centre and index holes', `${L(p.centreHoleDiameter)}; ${index.length} × ${L(p.indexHoleDiameter)} on the clocking axis`],
+    ['Thickness, floor gap', `${L(plate.metrics.thickness)}, ${L(plate.metrics.floorGap)}`],
+  ], [0, 130], 8, MARGIN)
+  page.y -= 4
+  page.para('Drawing: outline (green), rabbets (amber), holes, caster top plates (blue), trunk (dashed), counterweight blocks (shaded), centre of mass (cross) and the tipping line (red, dashed).', 7.5, MARGIN, colW - 10, COLOURS.muted)
+  casterDiagram(page, plate, { x: MARGIN + colW + 10, y: MARGIN, w: colW - 10, h: top - MARGIN })
+}
+
+function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptions): void {
+  header(page, o.meta, 2, o.units)
+  const u = o.units
+  const L = (mm: number) => sheetLength(mm, u)
+  const M = (kg: number) => formatMass(kg, u)
+  const F = (n: number) => formatForce(n, u)
+  const p = plate.params
+  const s = a.stability
+  const n = p.casterCount
+  const w = plate.metrics.width
+  const h = plate.metrics.height
+
+  page.heading('Cut list')
+  const layers = Array.from({ length: p.layers }, (_, i) => [
+    `Layer ${i + 1}${i === 0 ? ' (top)' : i === p.layers - 1 ? ' (bottom)' : ''}`,
+    `plywood, ${L(p.sheetThickness)} thick`,
+    `${L(w)} × ${L(h)} blank`,
+    i === 0 ? `outline, ${n} pockets with rabbets, openings, centre and index holes` : 'outline, pockets, openings, centre and index holes; no rabbet',
+  ])
+  page.table([['layer', 'sheet', 'size', 'cuts'], ...layers], [0, 90, 210, 330])
+
+  page.heading('Hardware')
+  const cw = a.unit.counterweight
+  const bolts = plate.casterMounts[0]?.bolts.length ?? 4
+  const rows = [
+    ['item', 'count', 'size'],
+    ['Swivel casters', `${n}`, `${L(p.caster.wheelDiameter)} wheel, ${L(p.caster.overallHeight)} tall, swivel lead ${L(p.caster.swivelLead)}, rated ${M(a.casterRating)} each`],
+    ['Pans', `${n}`, `rim to fit a ${L(p.pocketDiameter + 2 * p.rabbetWidth)} rabbet, ${L(p.panDepth)} deep, over a ${L(p.pocketDiameter)} pocket`],
+    ['Pan fasteners', `${n} sets`, `through the rim into the rabbet floor (${L(p.rabbetDepth)} below the top face)`],
+    ['Caster bolts, nuts, washers', `${n * bolts}`, `${L(p.caster.boltDiameter)}, on ${L(p.caster.boltSpacingX)} × ${L(p.caster.boltSpacingY)} centres`],
+    ['Counterweight blocks', `${cw.count}`, `${COUNTERWEIGHT_MATERIALS[cw.material].label.toLowerCase()} ${L(cw.block.length)} × ${L(cw.block.width)} × ${L(cw.block.thickness)}, ${M(a.block.mass)} each, ${M(cw.count * a.block.mass)} in all`],
+  ]
+  page.table(rows, [0, 150, 200])
+
+  page.heading('Build steps')
+  const steps = [
+    `Laminate: glue ${p.layers} sheets of ${L(p.sheetThickness)} plywood into one panel; register the layers on the centre and index holes.`,
+    `Cut the outline with a jigsaw just outside the line; clean it with a router following the pattern.`,
+    `Route the rabbets in the top layer: ${L(p.rabbetWidth)} wide, ${L(p.rabbetDepth)} deep round each pocket.`,
+    `Drill and saw: pockets ${L(p.pocketDiameter)}, access openings, centre hole ${L(p.centreHoleDiameter)}, index holes ${L(p.indexHoleDiameter)}.`,
+    `Fit the pans: drop each through its pocket, rim in the rabbet, and fasten through the rim.`,
+    `Fit the casters to the pans' crowns with each top plate square to its radial line (see the caster orientation on page 1).`,
+    cw.count > 0 ? `Load the counterweight: ${cw.count} blocks through the access openings, laid flat inside the tube clear of the pans, locked in place.` : 'Counterweight: none entered; add blocks in the editor if the figures below ask for them.',
+  ]
+  steps.forEach((t, i) => page.para(`${i + 1}. ${t}`, 8.5))
+
+  page.heading('Shop math (estimates)')
+  const need = (k: number | null) => (k === null ? 'more than fit' : `${k} block${k === 1 ? '' : 's'}`)
+  page.table([
+    ['figure', 'value', 'against'],
+    ['Total weight', `${M(s.totalWeight)}`, `plate ${M(s.parts.plate.kg)}, load ${M(s.parts.load.kg)}, counterweight ${M(s.parts.counterweight.kg)}, casters and pans ${M(s.parts.hardware.kg)}`],
+    ['Centre of mass height', L(s.centreOfMassHeight), 'above the floor'],
+    ['Tipping angle (worst direction)', formatAngle(s.tippingAngle), `target ${formatAngle(a.unit.targetAngle)}: ${a.anglePasses ? 'reached' : `not reached, needs ${need(a.blocksForAngle)}`}`],
+    ['Support distance', L(s.supportDistance), `wheels swivelled the worst way (lead ${L(s.swivelLead)})`],
+    ['Push that tips it', `${F(s.tippingPush)} at ${L(s.pushHeight)}`, `check push ${F(a.checkPush)} (analogy): ${a.pushPasses ? 'stands it' : `does not, needs ${need(a.blocksForPush)}`}`],
+    ['Load per caster', M(s.loadPerCaster), `rating ${M(a.casterRating)}; shared by ${s.loadSharedBy} of ${n}`],
+    ['Root reaches the floor at', s.rootTouchAngle >= 90 ? 'never' : formatAngle(s.rootTouchAngle), 'lean about the nearest wheels'],
+    ['Rolling push', `${F(s.rollingPush.low)} to ${F(s.rollingPush.high)}`, '1-3 % of the weight on a smooth floor (from memory)'],
+  ], [0, 150, 260])
+  for (const f of a.findings) page.para(`${f.severity === 'error' ? 'Problem' : 'Check'}: ${f.message}`, 8.5, MARGIN, page.width - 2 * MARGIN, COLOURS.warn)
+
+  page.heading('Cautions')
+  for (const c of STABILITY_CAUTIONS) page.para(c, 7.5, MARGIN, page.width - 2 * MARGIN, COLOURS.ink)
+}
+
+/** Two pages in the reader's units. */
+export async function renderBuildSheetPdf(plate: Plate, options: BuildSheetOptions): Promise<Uint8Array> {
+  const u = options.units
+  const analysis = analyseUnit(plate, undefined, {
+    length: (mm) => sheetLength(mm, u),
+    mass: (kg) => formatMass(kg, u),
+    force: (n) => formatForce(n, u),
+  })
+  const doc = await PDFDocument.create()
+  doc.registerFontkit(fontkit)
+  const font: PDFFont = await doc.embedFont(await unpackWoff(await resolveFontBytes(options.font)), { subset: true })
+  doc.setTitle(`${options.meta.designName} - build sheet r${options.meta.revision}`)
+  doc.setCreator('Rootplate')
+  doc.setProducer('Rootplate')
+  const [pw, ph] = PAGES[options.paper ?? (u === 'in' ? 'letter' : 'a4')]
+  for (const draw of [firstPage, secondPage]) {
+    const pdfPage = doc.addPage([pw, ph])
+    const page = new Page(new Ops(font, FONT), pw, ph)
+    draw(page, plate, analysis, options)
+    pdfPage.node.addContentStream(doc.context.register(doc.context.flateStream(page.ops.toString())))
+    pdfPage.node.setFontDictionary(PDFName.of(FONT), font.ref)
+  }
+  return doc.save()
+}

@@ -1,0 +1,223 @@
+// The whole shop-math picture of one revision: the saved unit turned into
+// masses and heights, the statics, the counterweight a target needs, and the
+// findings (blocks that cannot go in or out, casters over their rating).
+// Kept apart from buildPlate's findings so the plate stays cheap to rebuild;
+// the editor and the build sheet call analyseUnit themselves.
+
+import type { Finding, Plate } from '../types'
+import { blockMass, blockPassage, layoutBlocks, materialDensity, type BlockLayout } from './counterweight'
+import { supportPolygon, tipping } from './support'
+import { STANDARD_GRAVITY, unitStability, type UnitInput, type UnitStability } from './stability'
+import { COUNTERWEIGHT_MATERIALS, unitSchema, type UnitParams } from './unit-params'
+
+export interface StabilityFinding extends Finding {
+  /** The figures behind the message, in kg, mm, degrees and newtons. */
+  values: Record<string, number>
+}
+
+export interface Formatters {
+  length: (mm: number) => string
+  mass: (kg: number) => string
+  force: (n: number) => string
+}
+
+export const METRIC_FORMAT: Formatters = {
+  length: (mm) => `${Math.round(mm)} mm`,
+  mass: (kg) => `${kg.toFixed(1)} kg`,
+  force: (n) => `${Math.round(n)} N`,
+}
+
+export interface LoadBreakdown {
+  /** kg standing on the plate and its centre of mass above the floor, mm. */
+  weight: number
+  height: number
+  /** Built mode only: the tube's own mass, kg (0 in given mode). */
+  tube: number
+}
+
+export interface UnitAnalysis {
+  unit: UnitParams
+  input: UnitInput
+  load: LoadBreakdown
+  stability: UnitStability
+  block: {
+    mass: number
+    density: number
+    densitySource: string
+    /** Diagonal of its smallest cross-section, mm. */
+    passage: number
+    /** The widest access opening, mm; 0 without openings. */
+    opening: number
+    passes: boolean
+  }
+  layout: BlockLayout
+  /** Push to check at the push height, N (by the analogy), and whether the unit stands it. */
+  checkPush: number
+  pushPasses: boolean
+  anglePasses: boolean
+  /** Blocks in all (not extra) that reach the target angle / stand the check push; null when no number of blocks that fit does. */
+  blocksForAngle: number | null
+  blocksForPush: number | null
+  casterRating: number
+  findings: StabilityFinding[]
+}
+
+/** The load as one mass at one height: given, or built up from the tube, its cladding and props. */
+export function resolveLoad(plate: Plate, unit: UnitParams): LoadBreakdown {
+  const l = unit.load
+  if (l.mode === 'given') return { weight: l.weight, height: l.height, tube: 0 }
+  const top = plate.metrics.floorGap + plate.metrics.thickness
+  const outer = plate.params.tubeDiameter / 2
+  const inner = Math.max(0, outer - plate.params.tubeWall)
+  const tube = Math.PI * (outer * outer - inner * inner) * l.tubeLength * 1e-9 * l.tubeDensity
+  const tubeHeight = top + l.tubeLength / 2
+  const weight = tube + l.cladding + l.props
+  const height = weight > 0 ? ((tube + l.cladding) * tubeHeight + l.props * l.propsHeight) / weight : tubeHeight
+  return { weight, height, tube }
+}
+
+function checkPushFor(unit: UnitParams, weightNewtons: number): number {
+  return Math.min(unit.pushFraction * weightNewtons, unit.pushMax)
+}
+
+export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Formatters = METRIC_FORMAT): UnitAnalysis {
+  const unit = unitGiven ?? (plate.params as { unit?: UnitParams }).unit ?? unitSchema.parse({})
+  const cw = unit.counterweight
+  const density = materialDensity(cw.material)
+  const mass = blockMass(cw.block, density)
+  const top = plate.metrics.floorGap + plate.metrics.thickness
+  const layout = layoutBlocks(plate, cw.block, cw.count, cw.maxLayers)
+  const placed = layout.spots.length
+  const load = resolveLoad(plate, unit)
+  const casterCount = plate.holes.filter((h) => h.kind === 'pocket').length
+  const input: UnitInput = {
+    loadWeight: load.weight,
+    loadHeight: load.height,
+    counterweight: cw.count * mass,
+    counterweightHeight: top + layout.heightAboveTop,
+    counterweightAt: { x: layout.x, y: layout.y },
+    pushHeight: unit.pushHeight,
+    hardwareWeight: unit.hardwarePerCaster * casterCount,
+  }
+  // Blocks with no place are still counted as weight, on top of the stacks: what the shop said it loads.
+  if (placed < cw.count && placed > 0) {
+    const extraHeight = top + (cw.maxLayers + 0.5) * Math.min(cw.block.length, cw.block.width, cw.block.thickness)
+    input.counterweightHeight = (placed * (top + layout.heightAboveTop) + (cw.count - placed) * extraHeight) / cw.count
+  }
+  const stability = unitStability(plate, input)
+  const checkPush = checkPushFor(unit, stability.weightNewtons)
+  const openings = plate.holes.filter((h) => h.kind === 'access')
+  const opening = openings.reduce((m, h) => Math.max(m, h.diameter), 0)
+  const passage = blockPassage(cw.block)
+
+  // Blocks needed: add them one by one where the layout puts them and watch the figures.
+  const full = layoutBlocks(plate, cw.block, 500, cw.maxLayers)
+  const support = supportPolygon(stability.kingpins, stability.swivelLead)
+  const base = stability.parts
+  const baseMass = base.plate.kg + base.load.kg + base.hardware.kg
+  const baseMz = base.plate.kg * base.plate.height + base.load.kg * base.load.height + base.hardware.kg * base.hardware.height
+  const baseMx = stability.centreOfMass.x * stability.totalWeight - base.counterweight.kg * input.counterweightAt!.x
+  const baseMy = stability.centreOfMass.y * stability.totalWeight - base.counterweight.kg * input.counterweightAt!.y
+  let blocksForAngle: number | null = null
+  let blocksForPush: number | null = null
+  let mz = 0
+  let mx = 0
+  let my = 0
+  const thick = Math.min(cw.block.length, cw.block.width, cw.block.thickness)
+  for (let k = 0; k <= full.spots.length; k++) {
+    if (k > 0) {
+      const s = full.spots[k - 1]!
+      mz += mass * (top + (s.layer + 0.5) * thick)
+      mx += mass * s.x
+      my += mass * s.y
+    }
+    const total = baseMass + k * mass
+    const t = tipping(support, (baseMx + mx) / total, (baseMy + my) / total, (baseMz + mz) / total)
+    const w = total * STANDARD_GRAVITY
+    if (blocksForAngle === null && t.angle >= unit.targetAngle) blocksForAngle = k
+    if (blocksForPush === null && (w * t.distance) / unit.pushHeight >= checkPushFor(unit, w)) blocksForPush = k
+    if (blocksForAngle !== null && blocksForPush !== null) break
+  }
+
+  const findings: StabilityFinding[] = []
+  const L = format.length
+  if (stability.supportDistance <= 0) {
+    findings.push({
+      code: 'unit-tips',
+      severity: 'error',
+      message: `The centre of mass stands ${L(-stability.supportDistance)} outside the wheels' support with every wheel swivelled the worst way: the unit tips on its own.`,
+      field: 'unit.load.height',
+      values: { supportDistance: stability.supportDistance },
+    })
+  }
+  if (cw.count > 0 && (openings.length === 0 || passage >= opening)) {
+    findings.push({
+      code: 'counterweight-passage',
+      severity: 'error',
+      message: openings.length === 0
+        ? 'The plate has no access openings: counterweight blocks cannot be loaded or taken out again for storage.'
+        : `A block needs an opening wider than ${L(passage)} (the diagonal of its smallest end) to go in and to come out again for storage; the access openings are ${L(opening)}.`,
+      field: openings.length === 0 ? 'access.enabled' : 'access.diameter',
+      values: { passage, opening },
+    })
+  }
+  if (cw.count > layout.capacity) {
+    findings.push({
+      code: 'counterweight-fit',
+      severity: 'error',
+      message: `Only ${layout.capacity} blocks fit inside the tube (${layout.perLayer} a layer, ${cw.maxLayers} high), clear of the pans and the access openings; ${cw.count} are loaded.`,
+      field: 'unit.counterweight.count',
+      values: { capacity: layout.capacity, perLayer: layout.perLayer, count: cw.count },
+    })
+  }
+  if (stability.loadPerCaster > unit.casterRating) {
+    findings.push({
+      code: 'caster-overload',
+      severity: 'error',
+      message: `Each caster may carry ${format.mass(stability.loadPerCaster)} (the weight shared by ${stability.loadSharedBy} of ${casterCount} on an uneven floor), more than its rating of ${format.mass(unit.casterRating)}.`,
+      field: 'unit.casterRating',
+      values: { loadPerCaster: stability.loadPerCaster, rating: unit.casterRating },
+    })
+  }
+  const anglePasses = stability.tippingAngle >= unit.targetAngle
+  if (stability.supportDistance > 0 && !anglePasses) {
+    findings.push({
+      code: 'tipping-angle',
+      severity: 'warning',
+      message: `It tips at a lean of ${stability.tippingAngle.toFixed(1)}°, less than the ${unit.targetAngle}° aimed for.`,
+      field: 'unit.targetAngle',
+      values: { tippingAngle: stability.tippingAngle, targetAngle: unit.targetAngle },
+    })
+  }
+  const pushPasses = stability.tippingPush >= checkPush
+  if (stability.supportDistance > 0 && !pushPasses) {
+    findings.push({
+      code: 'tipping-push',
+      severity: 'warning',
+      message: `A push of ${format.force(stability.tippingPush)} at ${L(stability.pushHeight)} tips it, less than the ${format.force(checkPush)} checked (an analogy, not a scenery rule).`,
+      field: 'unit.pushHeight',
+      values: { tippingPush: stability.tippingPush, checkPush },
+    })
+  }
+
+  return {
+    unit,
+    input,
+    load,
+    stability,
+    block: { mass, density, densitySource: COUNTERWEIGHT_MATERIALS[cw.material].source, passage, opening, passes: openings.length > 0 && passage < opening },
+    layout,
+    checkPush,
+    pushPasses,
+    anglePasses,
+    blocksForAngle,
+    blocksForPush,
+    casterRating: unit.casterRating,
+    findings,
+  }
+}
+
+/** The findings alone: what a caller folding them into a plate's list needs. */
+export function stabilityFindings(plate: Plate, unit?: UnitParams, format?: Formatters): StabilityFinding[] {
+  return analyseUnit(plate, unit, format).findings
+}

@@ -1,0 +1,108 @@
+// The build sheet route against the built server, read back with independent
+// readers: page sizes with pdf-lib, words with poppler's pdftotext, a page
+// rendered with pdftoppm to look at. The design is this test's own.
+import { execFileSync } from 'node:child_process'
+import { mkdirSync, writeFileSync } from 'node:fs'
+import { PDFDocument } from 'pdf-lib'
+import { beforeAll, describe, expect, it, inject } from 'vitest'
+import { api, demo, freshAddress, signIn } from './support/api'
+
+const IN = 25.4 // exact (international yard and pound agreement 1959)
+const shots = 'test-results/e2e'
+let designer = ''
+let builder = ''
+let revisionId = ''
+
+async function download(path: string, cookie?: string) {
+  const headers: Record<string, string> = { 'x-forwarded-for': freshAddress() }
+  if (cookie) headers.cookie = cookie
+  const res = await fetch(`${inject('baseUrl')}${path}`, { headers, redirect: 'manual' })
+  return { status: res.status, type: res.headers.get('content-type') ?? '', disposition: res.headers.get('content-disposition') ?? '', bytes: new Uint8Array(await res.arrayBuffer()) }
+}
+
+/** Words of a PDF as poppler reads them, spaces and line breaks collapsed. */
+function pdfText(bytes: Uint8Array, name: string): string {
+  const file = `${shots}/${name}.pdf`
+  writeFileSync(file, bytes)
+  return execFileSync('/usr/bin/pdftotext', ['-layout', file, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ')
+}
+
+beforeAll(async () => {
+  mkdirSync(shots, { recursive: true })
+  designer = await signIn(demo.designer)
+  builder = await signIn(demo.builder)
+  // Four kingpins on a 12 in radius with a 1.5 in swivel lead, a heavy load with its centre of mass at 36 in:
+  // the worked value in REFERENCES ("Rolling stability") is 10.98 deg when the load dominates.
+  const created = await api('/api/designs', {
+    method: 'POST',
+    cookie: designer,
+    body: {
+      name: 'Build sheet check stump',
+      params: {
+        tubeDiameter: 700, casterCount: 4, casterOffset: 12 * IN, pocketDiameter: 100,
+        caster: { swivelLead: 1.5 * IN }, lobes: { irregularity: 0 },
+        unit: { load: { weight: 5000, height: 36 * IN }, hardwarePerCaster: 0, casterRating: 500, counterweight: { count: 2 } },
+      },
+    },
+  })
+  expect(created.status).toBe(201)
+  revisionId = created.body.revision.id
+})
+
+describe('GET /api/revisions/:id/build-sheet.pdf', () => {
+  it('keeps the unit saved with the revision', async () => {
+    const r = await api(`/api/revisions/${revisionId}`, { cookie: builder })
+    expect(r.status).toBe(200)
+    expect(r.body.params.unit.load.weight).toBe(5000)
+    expect(r.body.params.unit.counterweight).toMatchObject({ material: 'steel', count: 2 })
+  })
+
+  it('in inches: two Letter pages (612 x 792 pt, ASME Y14.1) with the drawing, lists, steps, figures and cautions', async () => {
+    const res = await download(`/api/revisions/${revisionId}/build-sheet.pdf?units=in`, builder)
+    expect(res.status).toBe(200)
+    expect(res.type).toContain('application/pdf')
+    expect(res.disposition).toMatch(/filename="build-sheet-check-stump-r1-build-sheet\.pdf"/)
+    const doc = await PDFDocument.load(res.bytes)
+    expect(doc.getPageCount()).toBe(2)
+    for (const page of doc.getPages()) {
+      expect(page.getWidth()).toBeCloseTo(612, 1)
+      expect(page.getHeight()).toBeCloseTo(792, 1)
+    }
+    const text = pdfText(res.bytes, 'build-sheet-in')
+    for (const words of ['Build sheet', 'Build sheet check stump', 'Revision r1', 'drawn by Priya Okafor', 'Main dimensions', 'Cut list', 'Layer 1 (top)', 'Layer 2 (bottom)', 'Hardware', 'Swivel casters', 'Pan fasteners', 'Counterweight blocks', 'Build steps', 'Laminate', 'square to its radial line', 'Caster orientation', 'tipping line', 'Shop math (estimates)', 'Tipping angle', 'Load per caster', 'Cautions', 'qualified person', 'local codes', 'IEC 62368-1']) {
+      expect(text).toContain(words)
+    }
+    expect(text).toMatch(/Scale 1:\d+ \([\d/-]+ in = 1 ft\)/)
+    // 10.98 deg (REFERENCES worked value) to the sheet's one decimal.
+    expect(text).toMatch(/Tipping angle \(worst direction\) 11\.0°/)
+    // Steel 2 x 4 x 4 in blocks: about 9.1 lb each (REFERENCES: EN 1991-1-1 Table A.4, computed).
+    expect(text).toContain('9.1 lb each')
+    // Over 5000 kg shared by three of four casters (n - 1) against a 500 kg rating: a problem on the sheet.
+    expect(text).toMatch(/Problem: Each caster may carry/)
+  })
+
+  it('in millimetres: two A4 pages (595.28 x 841.89 pt, ISO 216), sizes in mm and kg', async () => {
+    const res = await download(`/api/revisions/${revisionId}/build-sheet.pdf?units=mm`, builder)
+    expect(res.status).toBe(200)
+    const doc = await PDFDocument.load(res.bytes)
+    expect(doc.getPageCount()).toBe(2)
+    expect(doc.getPage(0).getWidth()).toBeCloseTo(595.28, 1)
+    expect(doc.getPage(0).getHeight()).toBeCloseTo(841.89, 1)
+    const text = pdfText(res.bytes, 'build-sheet-mm')
+    expect(text).toMatch(/Scale 1:\d+ /)
+    expect(text).toContain('sizes in millimetres')
+    // 12 in caster offset is 304.8 mm: 305 mm on the sheet.
+    expect(text).toContain('305 mm, 4 casters')
+    expect(text).toContain('4.1 kg each')
+    // pdftoppm renders page 1 for a person to look at.
+    execFileSync('/usr/bin/pdftoppm', ['-png', '-r', '60', '-f', '1', '-l', '1', '-singlefile', `${shots}/build-sheet-mm.pdf`, `${shots}/build-sheet-mm-1`])
+  })
+
+  it('answers 422 with a field message for unknown units, 401 without a session, 404 for no such revision', async () => {
+    const bad = await api(`/api/revisions/${revisionId}/build-sheet.pdf?units=ft`, { cookie: builder })
+    expect(bad.status).toBe(422)
+    expect(bad.body.data.fields.units).toMatch(/in or mm/)
+    expect((await download(`/api/revisions/${revisionId}/build-sheet.pdf`)).status).toBe(401)
+    expect((await download('/api/revisions/00000000-0000-4000-8000-000000000000/build-sheet.pdf', builder)).status).toBe(404)
+  })
+})
