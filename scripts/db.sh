@@ -8,12 +8,19 @@
 #   bash scripts/db.sh status   say whether it runs and where
 #   bash scripts/db.sh url      print the DATABASE_URL of the local cluster
 #
-# PG_PORT picks the port (default 55432). `start` exits 0 and prints
+# PG_PORT picks the port; by default one derived from the checkout's folder
+# (55500-56499, the same as defaultPgPort() in server/utils/db.ts), so two
+# checkouts on one machine never share a cluster by accident. `start` exits 0 and prints
 # "started" when it started the server, "running" when it already ran.
 set -euo pipefail
 
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
-PG_PORT=${PG_PORT:-55432}
+default_port() {
+  local hex
+  hex=$(printf '%s' "$ROOT" | md5sum | cut -c1-4)
+  echo $((55500 + 16#$hex % 1000))
+}
+PG_PORT=${PG_PORT:-$(default_port)}
 DB_NAME=${PG_DATABASE:-rootplate}
 DATA_ROOT="$ROOT/.data"
 
@@ -129,6 +136,7 @@ cmd_start() {
     die "the server did not start within 60 s (log above: port, disk or permission)"
   fi
   ensure_database
+  note "PostgreSQL for this checkout listens on 127.0.0.1:$PG_PORT (PG_PORT overrides)"
   echo started
 }
 
