@@ -7,8 +7,11 @@ function refuse(statusCode: number, statusMessage: string, message: string, code
   throw createError({ statusCode, statusMessage, message, data: { code } })
 }
 
-function trustProxy(event: H3Event): boolean {
-  return ['1', 'true'].includes(String(useRuntimeConfig(event).trustProxy))
+// Not useRuntimeConfig(event): that copies the whole config and re-reads the environment on every request.
+let trusted: boolean | undefined
+function trustProxy(): boolean {
+  trusted ??= ['1', 'true'].includes(String(useRuntimeConfig().trustProxy))
+  return trusted
 }
 
 /**
@@ -27,7 +30,7 @@ function checkSameOrigin(event: H3Event) {
     let host: string
     try { host = new URL(origin).host }
     catch { refuse(403, 'Forbidden', 'Requests from other sites are refused; use Rootplate itself', 'cross-site') }
-    const own = getRequestHost(event, { xForwardedHost: trustProxy(event) })
+    const own = getRequestHost(event, { xForwardedHost: trustProxy() })
     if (host !== own) refuse(403, 'Forbidden', 'Requests from other sites are refused; use Rootplate itself', 'cross-site')
   }
 }

@@ -1,11 +1,10 @@
 import type { H3Event } from 'h3'
 
 /** Whether the browser reached us over HTTPS: directly, or through a proxy the operator trusts. */
-function overHttps(event: H3Event): boolean {
+function overHttps(event: H3Event, trustProxy: boolean): boolean {
   const socket = event.node.req.socket as { encrypted?: boolean }
   if (socket.encrypted) return true
-  const trust = ['1', 'true'].includes(String(useRuntimeConfig(event).trustProxy))
-  return trust && getRequestHeader(event, 'x-forwarded-proto')?.split(',')[0]?.trim() === 'https'
+  return trustProxy && getRequestHeader(event, 'x-forwarded-proto')?.split(',')[0]?.trim() === 'https'
 }
 
 /**
@@ -14,8 +13,10 @@ function overHttps(event: H3Event): boolean {
  * and refuse the next plain-HTTP visit.
  */
 export default defineNitroPlugin((nitroApp) => {
+  // Read once: useRuntimeConfig(event) copies the whole config and re-reads the environment on every request.
+  const trustProxy = ['1', 'true'].includes(String(useRuntimeConfig().trustProxy))
   nitroApp.hooks.hook('beforeResponse', (event) => {
-    if (!overHttps(event)) return
+    if (!overHttps(event, trustProxy)) return
     const res = event.node.res
     if (res.headersSent) return
     const cookies = res.getHeader('set-cookie')
