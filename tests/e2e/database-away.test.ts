@@ -13,6 +13,9 @@ import { api, demo, signIn } from './support/api'
 import { launchChromium } from './support/browser'
 import { cluster } from './support/cluster'
 import { plateDefaults } from './support/plate'
+import { recreateDatabase, withDatabase } from './support/fixtures'
+import { startBuiltServer } from './support/server'
+import postgres from 'postgres'
 
 const shots = 'test-results/e2e'
 let designer: string
@@ -134,5 +137,24 @@ describe('the database stopped and started again', () => {
     expect(latest.body.latest.note).toBe('Saved across an outage')
     expect(consoleErrors).toEqual([])
     await page.close()
+  })
+
+  it('a server pointed at a database without Rootplate\'s migrations refuses to start and says how to fix it', async () => {
+    const empty = withDatabase(inject('databaseUrl'), `rootplate_unmigrated_${process.pid}_test`)
+    await recreateDatabase(empty)
+    try {
+      const started = await startBuiltServer({ DATABASE_URL: empty, NUXT_SESSION_PASSWORD: 'test-session-password-of-at-least-32-chars' }).then(
+        async (s) => { await s.stop(); return 'started' },
+        (err: unknown) => String(err),
+      )
+      expect(started).toMatch(/refusing to serve/)
+      expect(started).toMatch(/does not carry Rootplate's migrations/)
+      expect(started).toMatch(/npm run db:migrate/)
+    }
+    finally {
+      const admin = postgres(withDatabase(inject('databaseUrl'), 'postgres'), { max: 1, onnotice: () => {} })
+      await admin.unsafe(`drop database if exists "${new URL(empty).pathname.slice(1)}" with (force)`)
+      await admin.end()
+    }
   })
 })
