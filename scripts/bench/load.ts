@@ -7,7 +7,7 @@
 // Run: npm run bench (it builds and starts the database), or
 //   npx nuxt build && npx tsx scripts/bench/load.ts
 import { createRequire } from 'node:module'
-import autocannon from 'autocannon'
+import autocannon, { type AutocannonRequest } from 'autocannon'
 import postgres from 'postgres'
 import { applyMigrations } from '../migrate'
 import { runSeed } from '../seed'
@@ -53,7 +53,7 @@ try {
     designs.push({ id: body.id, number: body.revision.number })
   }
   const ids = designs.map(d => d.id)
-  const [{ n: rowsBefore }] = await sql<{ n: number }[]>`select count(*)::int as n from revisions where design_id = any(${ids})`
+  const rowsBefore = (await sql<{ n: number }[]>`select count(*)::int as n from revisions where design_id = any(${ids})`)[0]!.n
 
   // A design is checked out by one request at a time, so each save is based on its latest revision.
   const free = [...designs]
@@ -85,7 +85,7 @@ try {
       connections,
       duration: DURATION,
       headers: { 'content-type': 'application/json', cookie },
-      requests: requests as autocannon.Request[],
+      requests: requests as AutocannonRequest[],
     })
     return { title, connections, result, p95: latencies.getValueAtPercentile(95) }
   }
@@ -98,7 +98,7 @@ try {
     await run('design reads', 10, [{ method: 'GET', path: readPath }]),
   ]
 
-  const [{ n: rowsAfter }] = await sql<{ n: number }[]>`select count(*)::int as n from revisions where design_id = any(${ids})`
+  const rowsAfter = (await sql<{ n: number }[]>`select count(*)::int as n from revisions where design_id = any(${ids})`)[0]!.n
   // Per design: revisions numbered 1..latest without a gap, and the last number a client was told is there.
   const stored = await sql<{ id: string; latest: number; n: number; top: number }[]>`
     select d.id, d.latest_revision as latest, count(r.id)::int as n, coalesce(max(r.number), 0) as top

@@ -96,5 +96,5 @@ export default defineEventHandler(async (event) => {
   }
   // Read once, here, within the limit; h3's body readers take it from _requestBody.
   const body = await readLimited(event, rule.limit)
-  ;(event as H3Event & { _requestBody?: Buffer })._requestBody = body
+  ;(event as unknown as { _requestBody?: Buffer })._requestBody = body
 })

@@ -36,7 +36,7 @@ async function revisionCount(): Promise<number> {
 }
 
 /** A raw request, so headers fetch would not allow (Content-Length, Origin) can be set. */
-function raw(path: string, opts: { method?: string; headers?: Record<string, string>; body?: string | Buffer }) {
+function raw(path: string, opts: { method?: string; headers?: Record<string, string>; body?: string }) {
   return fetch(`${inject('baseUrl')}${path}`, { method: opts.method ?? 'POST', headers: opts.headers, body: opts.body })
 }
 
