@@ -21,6 +21,8 @@ export default defineConfig({
           name: 'nuxt',
           include: ['tests/nuxt/**/*.test.ts'],
           environment: 'nuxt',
+          // The first mount starts the whole Nuxt app: seconds on a busy 2-core machine.
+          testTimeout: 30_000,
         },
       }),
       {
