@@ -6,7 +6,7 @@ export default defineNuxtConfig({
   srcDir: '.',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
   css: [
     '@fontsource/ibm-plex-sans/400.css',
     '@fontsource/ibm-plex-sans/500.css',
@@ -27,6 +27,50 @@ export default defineNuxtConfig({
   runtimeConfig: {
     // Set NUXT_TRUST_PROXY=1 when a reverse proxy in front sets X-Forwarded-For.
     trustProxy: false as boolean | string,
+    // The session cookie: HttpOnly, SameSite=Lax, two weeks. `Secure` is added
+    // per request by server/plugins/https.ts when the request came over HTTPS,
+    // so the app still signs in over plain HTTP on a shop's LAN address.
+    session: {
+      maxAge: 60 * 60 * 24 * 14,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: false, path: '/' },
+    },
+  },
+  // Headers only; bodies, origins and content types are checked by
+  // server/middleware/01.request-guard.ts, which knows each route's limits.
+  security: {
+    strict: false,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ["'self'"],
+        'base-uri': ["'none'"],
+        'connect-src': ["'self'"],
+        'font-src': ["'self'"],
+        'form-action': ["'self'"],
+        'frame-ancestors': ["'none'"],
+        'frame-src': ["'self'", 'blob:'],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'object-src': ["'none'"],
+        'script-src': ["'self'", "'strict-dynamic'", "'nonce-{{nonce}}'"],
+        'script-src-attr': ["'none'"],
+        // Vue binds inline style attributes (canvas handles): nonces cannot cover those.
+        'style-src': ["'self'", "'unsafe-inline'"],
+        'worker-src': ["'self'", 'blob:'],
+        // Plain HTTP on a LAN address must keep working; HTTPS deployments get HSTS from server/plugins/https.ts.
+        'upgrade-insecure-requests': false,
+      },
+      strictTransportSecurity: false,
+      xFrameOptions: 'DENY',
+      referrerPolicy: 'same-origin',
+      xContentTypeOptions: 'nosniff',
+      crossOriginEmbedderPolicy: false,
+    },
+    rateLimiter: false,
+    xssValidator: false,
+    requestSizeLimiter: false,
+    corsHandler: false,
+    removeLoggers: false,
+    sri: true,
+    nonce: true,
   },
   nitro: {
     externals: { external: ['paper'] },

@@ -25,6 +25,8 @@ export default defineConfig({
           environment: 'nuxt',
           // Booting the Nuxt environment cold took over the 10 s default under load.
           hookTimeout: 60_000,
+          // The first mount starts the whole Nuxt app: seconds on a busy 2-core machine.
+          testTimeout: 30_000,
         },
       }),
       {

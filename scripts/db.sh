@@ -7,13 +7,25 @@
 #   bash scripts/db.sh stop     stop the project's server
 #   bash scripts/db.sh status   say whether it runs and where
 #   bash scripts/db.sh url      print the DATABASE_URL of the local cluster
+#   bash scripts/db.sh backup   pg_dump (custom format) into .data/backups/; the path is the last line
+#   bash scripts/db.sh restore FILE   pg_restore --clean FILE into the project's database
 #
-# PG_PORT picks the port (default 55432). `start` exits 0 and prints
+# backup and restore work on DATABASE_URL when it is set, else on the local
+# cluster's database (PG_DATABASE, default rootplate).
+#
+# PG_PORT picks the port; by default one derived from the checkout's folder
+# (55500-56499, the same as defaultPgPort() in server/utils/db.ts), so two
+# checkouts on one machine never share a cluster by accident. `start` exits 0 and prints
 # "started" when it started the server, "running" when it already ran.
 set -euo pipefail
 
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
-PG_PORT=${PG_PORT:-55432}
+default_port() {
+  local hex
+  hex=$(printf '%s' "$ROOT" | md5sum | cut -c1-4)
+  echo $((55500 + 16#$hex % 1000))
+}
+PG_PORT=${PG_PORT:-$(default_port)}
 DB_NAME=${PG_DATABASE:-rootplate}
 DATA_ROOT="$ROOT/.data"
 
@@ -129,6 +141,7 @@ cmd_start() {
     die "the server did not start within 60 s (log above: port, disk or permission)"
   fi
   ensure_database
+  note "PostgreSQL for this checkout listens on 127.0.0.1:$PG_PORT (PG_PORT overrides)"
   echo started
 }
 
@@ -151,10 +164,51 @@ cmd_status() {
   if pg_running; then echo "running on 127.0.0.1:$(running_port), data in $PGDATA"; else echo "stopped, data in $PGDATA"; fi
 }
 
+target_url() {
+  if [ -n "${DATABASE_URL:-}" ]; then echo "$DATABASE_URL"; else echo "postgres://postgres@127.0.0.1:$PG_PORT/$DB_NAME"; fi
+}
+
+need_client() {
+  PGBIN=$(find_bin || true)
+  [ -n "$PGBIN" ] || die "PostgreSQL's client programs are not installed; run 'npm run db:start' once (it installs them)"
+}
+
+cmd_backup() {
+  need_client
+  local dir="$DATA_ROOT/backups" url file
+  url=$(target_url)
+  mkdir -p "$dir"
+  file="$dir/rootplate-$(date -u +%Y%m%d-%H%M%S)-$$.dump"
+  # Custom format: compressed, and pg_restore can pick from it or clean first.
+  "$PGBIN/pg_dump" --format=custom --no-owner --file="$file.partial" --dbname="$url" \
+    || { rm -f "$file.partial"; die "pg_dump failed: is the database running? ('npm run db:start')"; }
+  mv "$file.partial" "$file"
+  note "backup of $(printf '%s' "$url" | sed -E 's#//[^@]*@#//#') written ($(du -h "$file" | cut -f1))"
+  echo "$file"
+}
+
+cmd_restore() {
+  need_client
+  local file=${1:-}
+  [ -n "$file" ] || die "usage: npm run db:restore -- FILE (a file written by npm run db:backup)"
+  [ -f "$file" ] || die "no such backup file: $file"
+  "$PGBIN/pg_restore" --list "$file" >/dev/null 2>&1 || die "$file is not a backup in pg_dump's custom format"
+  if [ -z "${DATABASE_URL:-}" ]; then ensure_database; fi
+  local url
+  url=$(target_url)
+  # One transaction: a restore that fails half-way leaves the database as it was.
+  "$PGBIN/pg_restore" --clean --if-exists --no-owner --single-transaction --exit-on-error --dbname="$url" "$file" \
+    || die "pg_restore failed; the database was left as it was"
+  note "restored $file into $(printf '%s' "$url" | sed -E 's#//[^@]*@#//#')"
+  echo restored
+}
+
 case "${1:-start}" in
   start) cmd_start ;;
   stop) cmd_stop ;;
   status) cmd_status ;;
   url) echo "postgres://postgres@127.0.0.1:$PG_PORT/$DB_NAME" ;;
-  *) die "usage: db.sh start|stop|status|url" ;;
+  backup) cmd_backup ;;
+  restore) cmd_restore "${2:-}" ;;
+  *) die "usage: db.sh start|stop|status|url|backup|restore FILE" ;;
 esac

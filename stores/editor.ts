@@ -170,6 +170,10 @@ export const useEditorStore = defineStore('editor', () => {
       if (e.status === 409) {
         conflict.value = { latest: (e.data as { latest: ConflictInfo['latest'] }).latest, note }
       }
+      else if (e.status === 503 || e.status === undefined) {
+        // The params stay as they are: the person saves again once the server answers.
+        saveError.value = `${e.status === 503 ? DATABASE_AWAY_MESSAGE : 'Rootplate cannot be reached; your unsaved changes are kept in this tab.'} Save again once it is back.`
+      }
       else {
         saveError.value = e.message
       }

@@ -86,9 +86,12 @@ export async function listShows(db: Database, shopId: string) {
     .from(shows).where(eq(shows.shopId, shopId)).orderBy(shows.name)
 }
 
-/** One design of the shop with its latest revision; null when absent or in another shop. */
-export async function getDesign(db: Database, shopId: string, designId: string): Promise<DesignDetail | null> {
-  const [row] = await db.select({
+// Hot statements, built once per database and prepared on each connection:
+// no SQL is rebuilt per request and PostgreSQL plans each once.
+const preparedDesign = new WeakMap<Database, ReturnType<typeof prepareGetDesign>>()
+
+function prepareGetDesign(db: Database) {
+  return db.select({
     id: designs.id,
     name: designs.name,
     sizeLabel: designs.sizeLabel,
@@ -96,15 +99,24 @@ export async function getDesign(db: Database, shopId: string, designId: string):
     showName: shows.name,
     createdAt: designs.createdAt,
     updatedAt: designs.updatedAt,
-    latestRevision: designs.latestRevision,
+    latest: { ...revisionColumns, params: revisions.params },
   }).from(designs)
+    .innerJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
     .leftJoin(shows, eq(shows.id, designs.showId))
-    .where(and(eq(designs.id, designId), eq(designs.shopId, shopId)))
-  if (!row) return null
-  const [latest] = await db.select({ ...revisionColumns, params: revisions.params }).from(revisions)
     .leftJoin(users, eq(users.id, revisions.authorId))
-    .where(and(eq(revisions.designId, designId), eq(revisions.number, row.latestRevision)))
-  if (!latest) return null
+    .where(and(eq(designs.id, sql.placeholder('designId')), eq(designs.shopId, sql.placeholder('shopId'))))
+    .prepare('get_design')
+}
+
+/** One design of the shop with its latest revision (one round trip); null when absent or in another shop. */
+export async function getDesign(db: Database, shopId: string, designId: string): Promise<DesignDetail | null> {
+  let query = preparedDesign.get(db)
+  if (!query) {
+    query = prepareGetDesign(db)
+    preparedDesign.set(db, query)
+  }
+  const [row] = await query.execute({ designId, shopId })
+  if (!row) return null
   return {
     id: row.id,
     name: row.name,
@@ -112,7 +124,7 @@ export async function getDesign(db: Database, shopId: string, designId: string):
     show: row.showId && row.showName ? { id: row.showId, name: row.showName } : null,
     createdAt: row.createdAt,
     updatedAt: row.updatedAt,
-    latest: { ...summary(latest), designId: latest.designId, params: latest.params },
+    latest: { ...summary(row.latest), designId: row.latest.designId, params: row.latest.params },
   }
 }
 
@@ -176,10 +188,11 @@ export type SaveResult =
   | { ok: false; reason: 'conflict'; latest: RevisionSummary }
 
 /**
- * Saves a new revision on top of `basedOn`. The guarded UPDATE takes the
- * design's row lock, so of many racing saves on the same base exactly one
- * matches `latest_revision = basedOn`; the others match nothing and store
- * nothing. The unique (design, number) index backs this up.
+ * Saves a new revision on top of `basedOn`, in one statement (one round trip,
+ * one implicit transaction): the guarded UPDATE takes the design's row lock,
+ * so of many racing saves on the same base exactly one matches
+ * `latest_revision = basedOn`; the others match nothing and, through the
+ * chained CTEs, insert nothing. The unique (design, number) index backs this up.
  */
 export async function saveRevision(
   db: Database,
@@ -187,30 +200,36 @@ export async function saveRevision(
   designId: string,
   input: { params: unknown; note: string; basedOn: number },
 ): Promise<SaveResult> {
-  return db.transaction(async (tx) => {
-    const [bumped] = await tx.update(designs)
-      .set({ latestRevision: sql`${designs.latestRevision} + 1`, updatedAt: new Date() })
-      .where(and(eq(designs.id, designId), eq(designs.shopId, actor.shopId), eq(designs.latestRevision, input.basedOn)))
-      .returning({ number: designs.latestRevision })
-    if (!bumped) {
-      const current = await tx.query.designs.findFirst({ columns: { latestRevision: true }, where: and(eq(designs.id, designId), eq(designs.shopId, actor.shopId)) })
-      if (!current) return { ok: false, reason: 'not-found' } as const
-      const [latest] = await tx.select(revisionColumns).from(revisions)
-        .leftJoin(users, eq(users.id, revisions.authorId))
-        .where(and(eq(revisions.designId, designId), eq(revisions.number, current.latestRevision)))
-      if (!latest) throw new Error(`design ${designId} has no revision ${current.latestRevision}`)
-      return { ok: false, reason: 'conflict', latest: summary(latest) } as const
-    }
-    const [row] = await tx.insert(revisions).values({
-      designId,
-      number: bumped.number,
-      params: input.params,
-      note: input.note,
-      authorId: actor.userId,
-    }).returning()
-    if (!row) throw new Error('insert returned no revision')
-    await tx.insert(activity).values({ shopId: actor.shopId, userId: actor.userId, designId, action: 'revision.saved', detail: { number: row.number, note: input.note } })
-    const author = await tx.query.users.findFirst({ columns: { name: true }, where: eq(users.id, actor.userId) })
-    return { ok: true, revision: summary({ ...row, authorName: author?.name ?? null }) } as const
-  })
+  const client = db.$client
+  // Tagged-template queries of postgres.js are prepared per connection.
+  const [row] = await client<{ id: string; number: number; note: string; created_at: string | Date; author_name: string | null }[]>`
+    with bumped as (
+      update designs set latest_revision = latest_revision + 1, updated_at = now()
+      where id = ${designId}::uuid and shop_id = ${actor.shopId}::uuid and latest_revision = ${input.basedOn}::int
+      returning latest_revision
+    ), inserted as (
+      insert into revisions (design_id, number, params, note, author_id)
+      select ${designId}::uuid, latest_revision, ${JSON.stringify(input.params)}::jsonb, ${input.note}::text, ${actor.userId}::uuid from bumped
+      returning id, number, note, created_at
+    ), logged as (
+      insert into activity (shop_id, user_id, design_id, action, detail)
+      select ${actor.shopId}::uuid, ${actor.userId}::uuid, ${designId}::uuid, 'revision.saved', jsonb_build_object('number', number, 'note', note) from inserted
+    )
+    select inserted.id, inserted.number, inserted.note, inserted.created_at,
+      (select name from users where id = ${actor.userId}::uuid) as author_name
+    from inserted`
+  if (row) {
+    return {
+      ok: true,
+      revision: { id: row.id, number: row.number, note: row.note, createdAt: new Date(row.created_at), author: { id: actor.userId, name: row.author_name } },
+    } as const
+  }
+  // Nothing saved: the design is not the shop's, or someone saved first.
+  const current = await db.query.designs.findFirst({ columns: { latestRevision: true }, where: and(eq(designs.id, designId), eq(designs.shopId, actor.shopId)) })
+  if (!current) return { ok: false, reason: 'not-found' } as const
+  const [latest] = await db.select(revisionColumns).from(revisions)
+    .leftJoin(users, eq(users.id, revisions.authorId))
+    .where(and(eq(revisions.designId, designId), eq(revisions.number, current.latestRevision)))
+  if (!latest) throw new Error(`design ${designId} has no revision ${current.latestRevision}`)
+  return { ok: false, reason: 'conflict', latest: summary(latest) } as const
 }

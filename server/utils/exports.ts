@@ -25,7 +25,7 @@ export function sendFile(event: H3Event, body: Uint8Array | string, type: string
   setResponseHeaders(event, {
     'content-type': type,
     'content-disposition': `attachment; filename="${filename}"`,
-    'cache-control': 'private, max-age=0',
+    'cache-control': 'no-store',
   })
   return body
 }

@@ -24,13 +24,59 @@ export function parseOr422<S extends z.ZodType>(schema: S, input: unknown): z.ou
   return result.data
 }
 
-/** The JSON body, validated. Malformed JSON is a 400 from h3 itself. */
+/** The JSON body, validated. Malformed JSON is a 400; text PostgreSQL cannot store is a 422. */
 export async function readBodyWith<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
   const body: unknown = await readBody(event).catch(() => {
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The request body is not valid JSON' })
   })
+  const bad = unstorableText(body)
+  if (bad) invalid({ [bad]: TEXT_MESSAGE })
   return parseOr422(schema, body ?? {})
 }
+
+/** Why a string cannot be kept: PostgreSQL text and jsonb refuse NUL, and a lone UTF-16 surrogate is not text at all. */
+export const TEXT_MESSAGE = 'Remove the invisible control character or broken symbol from this text'
+
+/** Whether PostgreSQL can store the string (no NUL, no lone surrogate). */
+export function storableText(s: string): boolean {
+  return !s.includes('\u0000') && !LONE_SURROGATE.test(s)
+}
+
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/
+
+/**
+ * The path of the first string (value or key) anywhere in a parsed body that
+ * PostgreSQL could not store, or null. Checked before any schema, so fields
+ * passed through as JSON (params, details) are covered as well as names.
+ */
+export function unstorableText(value: unknown, path: string[] = []): string | null {
+  if (typeof value === 'string') return storableText(value) ? null : (path.join('.') || '_')
+  if (!value || typeof value !== 'object') return null
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      const found = unstorableText(value[i], [...path, String(i)])
+      if (found) return found
+    }
+    return null
+  }
+  for (const [k, v] of Object.entries(value)) {
+    if (!storableText(k)) return [...path, '(key)'].join('.')
+    const found = unstorableText(v, [...path, k])
+    if (found) return found
+  }
+  return null
+}
+
+/**
+ * A trimmed text field with a length limit that PostgreSQL can store: the
+ * shared rule for names, labels and notes.
+ */
+export function textField(max: number, tooLong: string) {
+  return z.string().trim().max(max, tooLong).refine(storableText, TEXT_MESSAGE)
+}
+
+/** PostgreSQL's `integer` column range: anything beyond would fail in the database. */
+export const PG_INT_MAX = 2_147_483_647
 
 export function queryWith<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
   return parseOr422(schema, getQuery(event))

@@ -2,11 +2,11 @@ import { z } from 'zod'
 import { createDesign, showInShop } from '../../services/designs'
 
 const bodySchema = z.object({
-  name: z.string().trim().min(1, 'Give the design a name').max(120, 'Keep the name under 120 characters'),
-  sizeLabel: z.string().trim().max(40, 'Keep the size label under 40 characters').nullish(),
+  name: textField(120, 'Keep the name under 120 characters').pipe(z.string().min(1, 'Give the design a name')),
+  sizeLabel: textField(40, 'Keep the size label under 40 characters').nullish(),
   showId: z.uuid('Pick a show from the list').nullish(),
   params: z.unknown().refine(v => v !== undefined, 'Params are required'),
-  note: z.string().trim().max(500, 'Keep the note under 500 characters').optional(),
+  note: textField(500, 'Keep the note under 500 characters').optional(),
 })
 
 export default defineEventHandler(async (event) => {

@@ -6,7 +6,8 @@ import { users } from '../../database/schema'
 const patchSchema = z.object({
   units: z.unknown().optional(),
   fraction: z.unknown().optional(),
-  export: z.record(z.string(), z.unknown()).optional(),
+  // Only the known export settings: unknown keys are refused, not carried along.
+  export: z.object(Object.fromEntries(Object.keys(exportPrefsSchema.shape).map(k => [k, z.unknown().optional()]))).strict().optional(),
 }).strict()
 
 /** Merges the given preferences into the stored ones and returns the result. */

@@ -1,5 +1,5 @@
 import postgres from 'postgres'
-import { createDatabase } from '../../../server/utils/db'
+import { createDatabase, databaseUrl } from '../../../server/utils/db'
 import { memberships, shops, shows, users } from '../../../server/database/schema'
 import { createDesign } from '../../../server/services/designs'
 import { plateDefaults } from './plate'
@@ -19,7 +19,7 @@ export function withDatabase(url: string, name: string): string {
 
 export function testDatabaseUrl(): string {
   if (process.env.TEST_DATABASE_URL) return process.env.TEST_DATABASE_URL
-  const base = process.env.DATABASE_URL ?? `postgres://postgres@127.0.0.1:${process.env.PG_PORT ?? 55432}/rootplate`
+  const base = databaseUrl()
   const name = new URL(base).pathname.slice(1) || 'rootplate'
   return withDatabase(base, `${name}_test`)
 }

@@ -3,8 +3,8 @@ import { saveRevision } from '../../../services/designs'
 
 const bodySchema = z.object({
   params: z.unknown().refine(v => v !== undefined, 'Params are required'),
-  note: z.string().trim().max(500, 'Keep the note under 500 characters').default(''),
-  basedOn: z.number({ error: 'basedOn must be the revision number you started from' }).int().positive(),
+  note: textField(500, 'Keep the note under 500 characters').default(''),
+  basedOn: z.number({ error: 'basedOn must be the revision number you started from' }).int().positive().max(PG_INT_MAX, 'basedOn must be the revision number you started from'),
 })
 
 export default defineEventHandler(async (event) => {

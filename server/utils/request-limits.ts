@@ -1,0 +1,24 @@
+/** Body limits in bytes, by route, checked before anything is parsed. */
+export const BODY_LIMITS = {
+  /** Sign-in, sign-out, invitations, password forms. */
+  auth: 8 * 1024,
+  preferences: 8 * 1024,
+  /** A design or revision: the params of even a many-lobed plate are a few kB. */
+  design: 256 * 1024,
+  /** Uploads check their own 15 MB limit; this lets a 15 MB file and its multipart framing through. */
+  attachment: 16 * 1024 * 1024,
+  other: 64 * 1024,
+} as const
+
+const ATTACHMENTS = /^\/api\/designs\/[^/]+\/attachments\/?$/
+
+export interface RouteBodyRule { limit: number; multipart: boolean }
+
+/** The body limit of a route and whether it may take multipart bodies. */
+export function bodyRule(pathname: string): RouteBodyRule {
+  if (ATTACHMENTS.test(pathname)) return { limit: BODY_LIMITS.attachment, multipart: true }
+  if (pathname.startsWith('/api/auth/') || pathname.startsWith('/api/_auth/') || pathname.startsWith('/api/invitations')) return { limit: BODY_LIMITS.auth, multipart: false }
+  if (pathname === '/api/me/preferences') return { limit: BODY_LIMITS.preferences, multipart: false }
+  if (pathname.startsWith('/api/designs')) return { limit: BODY_LIMITS.design, multipart: false }
+  return { limit: BODY_LIMITS.other, multipart: false }
+}
