@@ -277,11 +277,15 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   page.heading('Hardware')
   const cw = a.unit.counterweight
   const bolts = plate.casterMounts[0]?.bolts.length ?? 4
+  // The circle the pan-rim fasteners stand on, measured from the first one to its pocket's centre.
+  const firstFastener = plate.fasteners[0]
+  const fastenedPocket = firstFastener && plate.holes.find((h) => h.id === firstFastener.pocketId)
+  const rimCircle = firstFastener && fastenedPocket ? 2 * Math.hypot(firstFastener.x - fastenedPocket.x, firstFastener.y - fastenedPocket.y) : 0
   const rows = [
     ['item', 'count', 'size'],
     ['Swivel casters', `${n}`, `${L(p.caster.wheelDiameter)} wheel, ${L(p.caster.overallHeight)} tall, swivel lead ${L(p.caster.swivelLead)}, rated ${M(a.casterRating)} each`],
     ['Pans', `${n}`, `rim to fit a ${L(p.pocketDiameter + 2 * p.rabbetWidth)} rabbet, ${L(p.panDepth)} deep, over a ${L(p.pocketDiameter)} pocket`],
-    ['Pan fasteners', `${n} sets`, `through the rim into the rabbet floor (${L(p.rabbetDepth)} below the top face)`],
+    ['Pan fasteners', `${plate.fasteners.length}`, `${p.fasteners.count} per pan, ${L(p.fasteners.diameter)} holes drilled through the rabbet floor${rimCircle ? ` on a ${L(rimCircle)} circle` : ''} (${L(p.rabbetDepth)} below the top face)`],
     ['Caster bolts, nuts, washers', `${n * bolts}`, `${L(p.caster.boltDiameter)}, on ${L(p.caster.boltSpacingX)} × ${L(p.caster.boltSpacingY)} centres`],
     ['Counterweight blocks', `${cw.count}`, `${COUNTERWEIGHT_MATERIALS[cw.material].label.toLowerCase()} ${L(cw.block.length)} × ${L(cw.block.width)} × ${L(cw.block.thickness)}, ${M(a.block.mass)} each, ${M(cw.count * a.block.mass)} in all`],
   ]
@@ -292,8 +296,8 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
     `Laminate: glue ${p.layers} sheets of ${L(p.sheetThickness)} plywood into one panel; register the layers on the centre and index holes.`,
     `Cut the outline with a jigsaw just outside the line; clean it with a router following the pattern.`,
     `Route the rabbets in the top layer: ${L(p.rabbetWidth)} wide, ${L(p.rabbetDepth)} deep round each pocket.`,
-    `Drill and saw: pockets ${L(p.pocketDiameter)}, access openings, centre hole ${L(p.centreHoleDiameter)}, index holes ${L(p.indexHoleDiameter)}.`,
-    `Fit the pans: drop each through its pocket, rim in the rabbet, and fasten through the rim.`,
+    `Drill and saw: pockets ${L(p.pocketDiameter)}, access openings, centre hole ${L(p.centreHoleDiameter)}, index holes ${L(p.indexHoleDiameter)}, ${plate.fasteners.length} pan-fastener holes ${L(p.fasteners.diameter)} through the rabbet floors.`,
+    `Fit the pans: drop each through its pocket, rim in the rabbet, and bolt the rim through the ${p.fasteners.count} holes round each pocket.`,
     `Fit the casters to the pans' crowns with each top plate square to its radial line (see the caster orientation on page 1).`,
     cw.count > 0 ? `Load the counterweight: ${cw.count} blocks through the access openings, laid flat inside the tube clear of the pans, locked in place.` : 'Counterweight: none entered; add blocks in the editor if the figures below ask for them.',
   ]

@@ -19,7 +19,7 @@ let designId = ''
 
 // This file's own design (the shared demo designs stay untouched): a round
 // plate, no lobes, on a 16 in tube, about 530 mm across.
-const params = { tubeDiameter: 406.4, casterCount: 3, casterOffset: 170, rotation: 0, lobes: { count: 0, irregularity: 0, valley: 40 } }
+const params = { tubeDiameter: 406.4, casterCount: 3, casterOffset: 170, rotation: 0, lobes: { count: 0, irregularity: 0, valley: 62 } }
 
 // People of their own too, in a shop of their own: the tests change the builder's remembered settings.
 let builder = { email: '', password: '' }

@@ -326,44 +326,58 @@ describe('the guide-bushing pattern line read back from the downloaded PDF', () 
     expect(widerBushing).toBeLessThan(base)
   })
 
+  /** A design of its own whose 6-1/2 in pockets are routed (past hole-saw sizes), so they get pattern rings. */
+  async function routedDesign(): Promise<{ id: string; outline: Pt[]; holes: ICircleEntity[] }> {
+    const params = { tubeDiameter: 609.6, casterCount: 4, casterOffset: 190, pocketDiameter: 165.1, rotation: 45, access: { enabled: false }, lobes: { count: 6, reach: 127, seed: 21 } }
+    const created = await api('/api/designs', { method: 'POST', cookie: cookies.designer, body: { name: `Export routed pockets ${Date.now()}`, params } })
+    expect(created.status).toBe(201)
+    const id = created.body.revision.id as string
+    const dxf = parseDxf((await download(`/api/revisions/${id}/cut.dxf?units=mm`, cookies.builder)).text)
+    const holes = dxf.entities.filter(e => e.type === 'CIRCLE' && e.layer === 'RP-INSIDE-CUT') as ICircleEntity[]
+    // Four pockets of 6-1/2 in, read back from the cut file's inside-profile layer.
+    expect(holes.map(c => Math.round(c.radius * 20) / 10)).toEqual([165.1, 165.1, 165.1, 165.1])
+    return { id, outline: outlineOf(dxf).vertices.map(v => [v.x, v.y] as Pt), holes }
+  }
+
   it('a bushing too big for the web between an opening and the edge: that stretch is hatched', async () => {
+    const own = await routedDesign()
     // The thinnest web between a routed opening and the plate's edge, measured on the cut file.
-    const openings = circlesMm.filter(c => c.layer === 'RP-INSIDE-CUT' && c.radius > 30)
-    const web = Math.min(...openings.map(c => distanceToRing([c.center.x, c.center.y], outlineMm) - c.radius))
-    const hatched = async (query: string) => {
-      const res = await download(`/api/revisions/${revisionId}/template.pdf?paper=tabloid&${query}`, cookies.builder)
+    const web = Math.min(...own.holes.map(c => distanceToRing([c.center.x, c.center.y], own.outline) - c.radius))
+    const hatched = async (bushing: number, bit: number) => {
+      const res = await download(`/api/revisions/${own.id}/template.pdf?paper=tabloid&bushing=${bushing}&bit=${bit}`, cookies.builder)
       return strokedPaths(bodyStream(await PDFDocument.load(res.bytes))).filter(p => p.dash === '[1.2 1.2] 0').length
     }
-    // 1-3/4 in bushing, 1/4 in bit: 19.05 mm each side of the web needs 38.1 mm of it.
-    expect(web).toBeLessThan(38.1)
-    expect(await hatched('bushing=44.45&bit=6.35')).toBeGreaterThan(0)
-    expect(web).toBeGreaterThan(2 * 12.7)
-    expect(await hatched('bushing=31.75&bit=6.35')).toBe(0)
+    // A bushing whose offset each side, (bushing - bit) / 2, is more than half the web cannot pass it.
+    const tooBig = Math.ceil(web + 6.35 + 4)
+    expect(await hatched(tooBig, 6.35)).toBeGreaterThan(0)
+    // 5/8 in bushing, 1/2 in bit: 1.59 mm each side, far less than the web.
+    expect(web).toBeGreaterThan(2 * 1.5875)
+    expect(await hatched(15.875, 12.7)).toBe(0)
   })
 
   it('each routed opening gets a pattern ring of its radius plus the offset', async () => {
-    const rings = await patternRings('bushing=31.75&bit=6.35')
-    const cutHoles = circlesMm.filter(c => c.layer === 'RP-INSIDE-CUT' && c.radius > 30)
-    expect(cutHoles.length).toBeGreaterThan(0)
-    for (const c of cutHoles) {
+    const own = await routedDesign()
+    const rings = await patternRings('bushing=31.75&bit=6.35', own.id)
+    for (const c of own.holes) {
       const ring = rings.find(r => r.every(([x, y]) => Math.abs(Math.hypot(x - c.center.x, y - c.center.y) - (c.radius + 12.7)) < 0.05))
       expect(ring, `opening at ${c.center.x}, ${c.center.y}`).toBeDefined()
     }
   })
 
-  it('a narrow root (the banyan starting shape, own design): the stretch out of reach is hatched, never drawn wrong', async () => {
+  it('a narrow root (the banyan starting shape, own design) with a 2 in bushing and 1/4 in bit: the stretch out of reach is hatched, never drawn wrong', async () => {
     const banyan = PRESETS.find(p => p.id === 'banyan-sprawl')!
     const created = await api('/api/designs', { method: 'POST', cookie: cookies.designer, body: { name: `Export bushing check ${Date.now()}`, params: banyan.input } })
     expect(created.status).toBe(201)
     const id = created.body.revision.id as string
     const cut = outlineOf(parseDxf((await download(`/api/revisions/${id}/cut.dxf?units=mm`, cookies.builder)).text)).vertices.map(v => [v.x, v.y] as Pt)
-    const res = await download(`/api/revisions/${id}/template.pdf?paper=tabloid&bushing=31.75&bit=6.35`, cookies.builder)
+    const res = await download(`/api/revisions/${id}/template.pdf?paper=tabloid&bushing=50.8&bit=6.35`, cookies.builder)
     const paths = strokedPaths(bodyStream(await PDFDocument.load(res.bytes)))
     const pattern = paths.filter(p => p.dash === '[5 2] 0').flatMap(p => p.subpaths.map(sp => sp.points))
     const hatched = paths.filter(p => p.dash === '[1.2 1.2] 0').flatMap(p => p.subpaths.map(sp => sp.points))
-    // Every pattern point 12.7 mm from the cut line: the pattern never comes closer (the old vertex moving came within 2 mm).
-    for (const ring of pattern) for (const p of ring) expect(distanceToRing(p, cut)).toBeGreaterThan(12.6)
-    const missed = cut.filter(p => Math.min(...pattern.map(r => distanceToRing(p, r))) > 12.8)
+    // (50.8 - 6.35) / 2 = 22.225 mm: every pattern point at least that far from the cut line (the old vertex moving came within 2 mm).
+    for (const ring of pattern) for (const p of ring) expect(distanceToRing(p, cut)).toBeGreaterThan(22.125)
+    // The banyan's root tips are 1/2 in round: tighter than the offset, so the bushing cannot reach them.
+    const missed = cut.filter(p => Math.min(...pattern.map(r => distanceToRing(p, r))) > 22.325)
     expect(missed.length).toBeGreaterThan(0)
     for (const p of missed) expect(Math.min(...hatched.map(run => distanceToRing(p, run, false)))).toBeLessThan(0.01)
   })
