@@ -55,11 +55,14 @@ export async function renderLabelSheet(items: LabelItem[], options: { origin: st
         while (t.length > 1 && font.widthOfTextAtSize(t, size) > maxWidth) t = `${t.slice(0, -2)}…`
         return t
       }
-      page.drawText(fit(item.label, 20), { x: tx, y: y0 + CELL.height - 0.45 * PT, size: 20, font })
+      // The label is what people read across the shop: as large as fits, down to 11 pt.
+      let size = 22
+      while (size > 11 && font.widthOfTextAtSize(item.label, size) > maxWidth) size -= 1
+      page.drawText(fit(item.label, size), { x: tx, y: y0 + CELL.height - 0.45 * PT, size, font })
       const lines = [
         unitKindLabels[item.kind],
-        item.designName ? `${item.designName}${item.revisionNumber ? ` · r${item.revisionNumber}` : ''}` : '',
-        item.sizeLabel ?? '',
+        item.designName ?? '',
+        [item.revisionNumber ? `built from r${item.revisionNumber}` : '', item.sizeLabel ?? ''].filter(Boolean).join(' · '),
         `Stage when printed: ${unitStatusLabels[item.status]}`,
       ].filter(Boolean)
       lines.forEach((line, k) => page.drawText(fit(line, 9), { x: tx, y: y0 + CELL.height - 0.75 * PT - k * 13, size: 9, font, color: rgb(0.25, 0.25, 0.25) }))
