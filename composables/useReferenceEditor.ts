@@ -30,6 +30,8 @@ export function useReferenceEditor(designId: MaybeRefOrGetter<string>) {
     draft.value = d ? { attachmentId: d.attachmentId, x: d.x, y: d.y, rotation: d.rotation, mmPerPixel: d.mmPerPixel, opacity: d.opacity } : null
   }, { immediate: true })
   const url = computed(() => (draft.value ? `/api/attachments/${draft.value.attachmentId}/file` : null))
+  // From the fetched row, not the draft: the same on the server and in the browser, so safe to render.
+  const savedId = computed(() => data.value?.attachmentId ?? null)
 
   async function save() {
     if (!draft.value) return
@@ -120,7 +122,7 @@ export function useReferenceEditor(designId: MaybeRefOrGetter<string>) {
     }
   }
 
-  return { draft, url, mode, points, saving, problem, hidden, save, place, startCalibration, pick, calibrate, cancel, remove, refresh }
+  return { draft, url, savedId, mode, points, saving, problem, hidden, save, place, startCalibration, pick, calibrate, cancel, remove, refresh }
 }
 
 export type ReferenceEditor = ReturnType<typeof useReferenceEditor>
