@@ -43,8 +43,16 @@ async function readLimited(event: H3Event, limit: number): Promise<Buffer> {
       chunks.push(chunk)
     }
     req.on('data', onData)
-    req.once('end', () => resolve(Buffer.concat(chunks)))
+    let ended = false
+    req.once('end', () => {
+      ended = true
+      resolve(Buffer.concat(chunks))
+    })
     req.once('error', reject)
+    // A sender that goes away mid-upload: give up rather than wait for an end that never comes.
+    req.once('close', () => {
+      if (!ended) reject(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The upload was interrupted' }))
+    })
   })
 }
 

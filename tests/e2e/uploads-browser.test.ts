@@ -72,7 +72,7 @@ describe('reference image under the plate, in Chromium', () => {
     await page.getByTestId('reference-overlay').waitFor({ state: 'detached' })
 
     // 20 in = 508 mm (1 in = 25.4 mm, NIST SP 811) over 400 px: 1.27 mm per pixel.
-    await expect.poll(async () => (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())?.mmPerPixel).toBeCloseTo(1.27, 6)
+    await expect.poll(async () => (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())?.mmPerPixel, { timeout: 20_000 }).toBeCloseTo(1.27, 6)
 
     // On screen, the dots now stand as far apart as 508 mm of plate: compare with two caster
     // pockets, which sit on a circle of radius casterOffset, 120 degrees apart for three casters,
@@ -93,8 +93,10 @@ describe('reference image under the plate, in Chromium', () => {
     await page.getByTestId('reference-move').click()
     await page.getByTestId('reference-overlay').press('Shift+ArrowRight')
     await page.getByTestId('reference-move').click()
-    await expect.poll(async () => (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())?.rotation).toBe(30)
-    const after = (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())
+    await expect.poll(async () => (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())?.rotation, { timeout: 20_000 }).toBe(30)
+    const placement = async () => (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())
+    await expect.poll(async () => (await placement()).x - before.x, { timeout: 20_000 }).toBeCloseTo(15.875, 6)
+    const after = await placement()
     const step = page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'in' })
     expect(await step.getAttribute('aria-pressed')).toBe('true')
     expect(after.x - before.x).toBeCloseTo(15.875, 6)
@@ -102,7 +104,7 @@ describe('reference image under the plate, in Chromium', () => {
     expect(after.mmPerPixel).toBeCloseTo(1.27, 6)
     await page.getByLabel(/Opacity/).fill('80')
     await page.getByLabel(/Opacity/).dispatchEvent('change')
-    await expect.poll(async () => (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())?.opacity).toBeCloseTo(0.8, 6)
+    await expect.poll(async () => (await (await page.request.get(`${base}/api/designs/${designId}/reference`)).json())?.opacity, { timeout: 20_000 }).toBeCloseTo(0.8, 6)
 
     // Kept with the design: still there after a reload, and no revision was made.
     await page.reload()
@@ -129,23 +131,23 @@ describe('the register of units, in Chromium', () => {
     await page.getByRole('button', { name: 'Record it' }).click()
     await page.waitForURL(/\/units\/[0-9a-f-]{36}$/)
     await expect(page.getByTestId('unit-label').textContent()).resolves.toBe(`OAK-${stamp}`)
-    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent()).toBe('Cut')
+    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent(), { timeout: 20_000 }).toBe('Cut')
 
     await page.getByTestId('next-stage').click()
-    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent()).toBe('Laminated')
+    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent(), { timeout: 20_000 }).toBe('Laminated')
     await page.getByTestId('next-stage').click()
-    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent()).toBe('Hardware fitted')
+    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent(), { timeout: 20_000 }).toBe('Hardware fitted')
 
     const due = new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10)
     await page.getByLabel('Borrower').fill('Millbrook High drama')
     await page.getByLabel('Due back').fill(due)
     await page.getByRole('button', { name: 'Lend it' }).click()
-    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent()).toBe('On loan')
+    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent(), { timeout: 20_000 }).toBe('On loan')
     await expect(page.getByTestId('loan-box').getByText('Millbrook High drama').first().isVisible()).resolves.toBe(true)
     await page.screenshot({ path: `${shots}/unit-on-loan.png`, fullPage: true })
     await page.getByRole('button', { name: 'Record the return' }).click()
-    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent()).toBe('In stock')
-    await expect.poll(() => page.getByTestId('unit-history').locator('li').count()).toBe(5)
+    await expect.poll(() => page.locator('h1 + [data-testid="unit-status"]').textContent(), { timeout: 20_000 }).toBe('In stock')
+    await expect.poll(() => page.getByTestId('unit-history').locator('li').count(), { timeout: 20_000 }).toBe(5)
     await page.screenshot({ path: `${shots}/unit-returned.png`, fullPage: true })
 
     await page.goto(`${base}/units?q=${stamp}`)
