@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm'
 import {
-  pgTable, pgEnum, uuid, text, integer, jsonb, timestamp, date, index, uniqueIndex, check,
+  pgTable, pgEnum, uuid, text, integer, bigint, doublePrecision, jsonb, timestamp, date, index, uniqueIndex, check,
 } from 'drizzle-orm/pg-core'
 
 export const roleEnum = pgEnum('member_role', ['lead', 'designer', 'builder', 'viewer'])
@@ -106,6 +106,101 @@ export const loginFailures = pgTable('login_failures', {
   index('login_failures_address_time_idx').on(t.address, t.createdAt),
 ])
 
+// --- Uploads and the register of built units and patterns ---
+
+export const attachmentKindEnum = pgEnum('attachment_kind', ['image', 'pdf'])
+
+// The bytes live in Nitro's storage ('uploads' mount: disk or S3); this row is
+// what we know about them. A file belongs to a design or to a unit, never both.
+export const attachments = pgTable('attachments', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  designId: uuid('design_id').references(() => designs.id, { onDelete: 'cascade' }),
+  unitId: uuid('unit_id').references(() => units.id, { onDelete: 'cascade' }),
+  kind: attachmentKindEnum('kind').notNull(),
+  contentType: text('content_type').notNull(),
+  name: text('name').notNull(),
+  size: bigint('size', { mode: 'number' }).notNull(),
+  storageKey: text('storage_key').notNull(),
+  uploadedBy: uuid('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+}, t => [
+  index('attachments_design_idx').on(t.designId),
+  index('attachments_unit_idx').on(t.unitId),
+  index('attachments_shop_idx').on(t.shopId),
+  check('attachments_one_owner', sql`(${t.designId} is null) <> (${t.unitId} is null)`),
+])
+
+// Where the reference image sits under the plate. Kept with the design, not a
+// revision: it is a drawing aid, never part of what gets built or exported.
+export const designReferences = pgTable('design_references', {
+  designId: uuid('design_id').primaryKey().references(() => designs.id, { onDelete: 'cascade' }),
+  attachmentId: uuid('attachment_id').notNull().references(() => attachments.id, { onDelete: 'cascade' }),
+  // Plate coordinates (mm, y up) of the image centre, its turn (degrees, counter-clockwise) and scale.
+  x: doublePrecision('x').notNull().default(0),
+  y: doublePrecision('y').notNull().default(0),
+  rotation: doublePrecision('rotation').notNull().default(0),
+  mmPerPixel: doublePrecision('mm_per_pixel').notNull().default(1),
+  opacity: doublePrecision('opacity').notNull().default(0.5),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  index('design_references_attachment_idx').on(t.attachmentId),
+  check('design_references_scale_positive', sql`${t.mmPerPixel} > 0`),
+  check('design_references_opacity_range', sql`${t.opacity} >= 0 and ${t.opacity} <= 1`),
+])
+
+export const unitKindEnum = pgEnum('unit_kind', ['plate', 'pattern'])
+export const unitStatusEnum = pgEnum('unit_status', ['cut', 'laminated', 'hardware_fitted', 'finished', 'in_stock', 'on_loan', 'retired'])
+
+export const units = pgTable('units', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  kind: unitKindEnum('kind').notNull(),
+  label: text('label').notNull(),
+  designId: uuid('design_id').references(() => designs.id, { onDelete: 'set null' }),
+  revisionId: uuid('revision_id').references(() => revisions.id, { onDelete: 'set null' }),
+  sizeLabel: text('size_label'),
+  status: unitStatusEnum('status').notNull().default('cut'),
+  location: text('location').notNull().default(''),
+  notes: text('notes').notNull().default(''),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  index('units_shop_idx').on(t.shopId),
+  index('units_design_idx').on(t.designId),
+  index('units_revision_idx').on(t.revisionId),
+  uniqueIndex('units_shop_label_key').on(t.shopId, sql`lower(${t.label})`),
+])
+
+// Who changed what and when: one row per change, with each field's before and after.
+export const unitEvents = pgTable('unit_events', {
+  id: id(),
+  unitId: uuid('unit_id').notNull().references(() => units.id, { onDelete: 'cascade' }),
+  userId: uuid('user_id').references(() => users.id, { onDelete: 'set null' }),
+  action: text('action').notNull(),
+  changes: jsonb('changes').notNull().default({}),
+  createdAt: createdAt(),
+}, t => [
+  index('unit_events_unit_time_idx').on(t.unitId, t.createdAt),
+])
+
+export const unitLoans = pgTable('unit_loans', {
+  id: id(),
+  unitId: uuid('unit_id').notNull().references(() => units.id, { onDelete: 'cascade' }),
+  borrower: text('borrower').notNull(),
+  outOn: date('out_on').notNull(),
+  dueOn: date('due_on').notNull(),
+  returnedOn: date('returned_on'),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+}, t => [
+  index('unit_loans_unit_idx').on(t.unitId),
+  // At most one open loan per unit.
+  uniqueIndex('unit_loans_open_key').on(t.unitId).where(sql`${t.returnedOn} is null`),
+  check('unit_loans_due_after_out', sql`${t.dueOn} >= ${t.outOn}`),
+])
+
 export type User = typeof users.$inferSelect
 export type Shop = typeof shops.$inferSelect
 export type Membership = typeof memberships.$inferSelect
@@ -114,3 +209,8 @@ export type Design = typeof designs.$inferSelect
 export type Revision = typeof revisions.$inferSelect
 export type Activity = typeof activity.$inferSelect
 export type Role = (typeof roleEnum.enumValues)[number]
+export type Attachment = typeof attachments.$inferSelect
+export type DesignReference = typeof designReferences.$inferSelect
+export type Unit = typeof units.$inferSelect
+export type UnitEvent = typeof unitEvents.$inferSelect
+export type UnitLoan = typeof unitLoans.$inferSelect

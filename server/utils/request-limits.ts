@@ -10,7 +10,8 @@ export const BODY_LIMITS = {
   other: 64 * 1024,
 } as const
 
-const ATTACHMENTS = /^\/api\/designs\/[^/]+\/attachments\/?$/
+/** Routes that take a file: a design's attachments and a unit's photos. */
+const ATTACHMENTS = /^\/api\/(designs\/[^/]+\/attachments|units\/[^/]+\/photos)\/?$/
 
 export interface RouteBodyRule { limit: number; multipart: boolean }
 

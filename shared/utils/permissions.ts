@@ -4,12 +4,18 @@ export const roles = ['lead', 'designer', 'builder', 'viewer'] as const
 export type ShopRole = (typeof roles)[number]
 
 export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view'
+  | 'attachment:add' | 'unit:view' | 'unit:edit'
 
 const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'design:view': roles,
   'design:create': ['lead', 'designer'],
   'design:edit': ['lead', 'designer'],
   'shop:members': ['lead'],
+  // Reference images and drawings on a design: the people who shape it.
+  'attachment:add': ['lead', 'designer'],
+  'unit:view': roles,
+  // Builders record what they built: new units, stages, loans, photos.
+  'unit:edit': ['lead', 'designer', 'builder'],
 }
 
 export function can(role: ShopRole | undefined | null, action: ShopAction): boolean {

@@ -1,3 +1,5 @@
+import { rmSync } from 'node:fs'
+import { resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { applyMigrations } from '../../scripts/migrate'
 import { hasher, runSeed } from '../../scripts/seed'
@@ -9,6 +11,7 @@ declare module 'vitest' {
     baseUrl: string
     databaseUrl: string
     other: { designId: string; revisionId: string }
+    uploadsDir: string
   }
 }
 
@@ -23,8 +26,14 @@ export default async function setup(project: TestProject) {
   await runSeed(databaseUrl)
   const other = await seedOtherShop(databaseUrl, p => hasher.make(p))
 
+  // Uploads of the test server go to a folder of their own, emptied each run.
+  const uploadsDir = resolve('.data/test-uploads')
+  rmSync(uploadsDir, { recursive: true, force: true })
+
   const { baseUrl, stop } = await startBuiltServer({
     DATABASE_URL: databaseUrl,
+    UPLOADS_DRIVER: 'fs',
+    UPLOADS_DIR: uploadsDir,
     NUXT_TRUST_PROXY: '1',
     NUXT_SESSION_PASSWORD: process.env.NUXT_SESSION_PASSWORD ?? 'test-session-password-of-at-least-32-chars',
   })
@@ -32,6 +41,7 @@ export default async function setup(project: TestProject) {
   project.provide('baseUrl', baseUrl)
   project.provide('databaseUrl', databaseUrl)
   project.provide('other', other)
+  project.provide('uploadsDir', uploadsDir)
 
   return stop
 }

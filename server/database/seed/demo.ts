@@ -2,7 +2,7 @@
 // numbers are our own. Demo accounts only; never use these passwords for real.
 import { eq } from 'drizzle-orm'
 import type { Database } from '../../utils/db'
-import { activity, designs, memberships, revisions, shops, shows, users } from '../schema'
+import { activity, designs, memberships, revisions, shops, shows, unitEvents, unitLoans, units, users } from '../schema'
 import type { ShopRole } from '../../../shared/utils/permissions'
 
 export const DEMO_PASSWORD = 'rootplate-demo'
@@ -81,6 +81,7 @@ export async function seedDemo(db: Database, hasher: SeedHasher, normalise: (p: 
     await tx.insert(memberships).values(demoPeople.map(p => ({ userId: byRole.get(p.role)!, shopId: shop.id, role: p.role })))
     const [show] = await tx.insert(shows).values({ shopId: shop.id, name: 'Beneath the Rowan Wood', venue: 'Alder Street Hall', opensOn: '2027-03-12' }).returning()
     if (!show) throw new Error('no show')
+    const built = new Map<string, { id: string; sizeLabel: string; revisionIds: string[] }>()
     let minute = 0
     const at = () => new Date(Date.UTC(2026, 10, 2, 15, 0) + (minute += 47) * 60_000)
     for (const d of demoDesigns()) {
@@ -91,13 +92,43 @@ export async function seedDemo(db: Database, hasher: SeedHasher, normalise: (p: 
       if (!design) throw new Error('no design')
       const first = at()
       let last = first
+      const revisionIds: string[] = []
       for (const [i, r] of d.revisions.entries()) {
         last = i === 0 ? first : at()
-        await tx.insert(revisions).values({ designId: design.id, number: i + 1, params: normalise(r.params), note: r.note, authorId: byRole.get(r.by), createdAt: last })
+        const [rev] = await tx.insert(revisions).values({ designId: design.id, number: i + 1, params: normalise(r.params), note: r.note, authorId: byRole.get(r.by), createdAt: last }).returning({ id: revisions.id })
+        revisionIds.push(rev!.id)
       }
+      built.set(d.name, { id: design.id, sizeLabel: d.sizeLabel, revisionIds })
       await tx.update(designs).set({ createdAt: first, updatedAt: last }).where(eq(designs.id, design.id))
       await tx.insert(activity).values({ shopId: shop.id, userId: byRole.get('designer'), designId: design.id, action: 'design.created', detail: { name: d.name }, createdAt: last })
     }
+    await seedDemoUnits(tx, shop.id, byRole.get('builder')!, built)
   })
   return true
+}
+
+/** A few built plates and kept patterns of the show, one of them lent to a school. */
+type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
+
+async function seedDemoUnits(db: Tx, shopId: string, builderId: string, built: Map<string, { id: string; sizeLabel: string; revisionIds: string[] }>) {
+  const oak = built.get('Hollow oak')
+  const rowan = built.get('Rowan sapling')
+  if (!oak || !rowan) return
+  const rows: { kind: 'plate' | 'pattern'; label: string; design: typeof oak; revision: number; status: 'hardware_fitted' | 'finished' | 'in_stock' | 'on_loan'; location: string; notes?: string }[] = [
+    { kind: 'plate', label: 'OAK-M-01', design: oak, revision: 3, status: 'finished', location: 'Scene dock', notes: 'Sandbag pocket in the hollow; two 25 lb bags.' },
+    { kind: 'plate', label: 'OAK-M-02', design: oak, revision: 3, status: 'hardware_fitted', location: 'Shop floor, bench 2' },
+    { kind: 'pattern', label: 'PAT-OAK-M', design: oak, revision: 3, status: 'in_stock', location: 'Pattern wall, row 2', notes: 'Hardboard, index holes drilled through.' },
+    { kind: 'plate', label: 'ROWAN-S-01', design: rowan, revision: 2, status: 'on_loan', location: 'Loft bay 4' },
+  ]
+  for (const r of rows) {
+    const [unit] = await db.insert(units).values({
+      shopId, kind: r.kind, label: r.label, designId: r.design.id, revisionId: r.design.revisionIds[r.revision - 1] ?? null,
+      sizeLabel: r.design.sizeLabel, status: r.status, location: r.location, notes: r.notes ?? '', createdBy: builderId,
+    }).returning()
+    if (!unit) throw new Error('no unit')
+    await db.insert(unitEvents).values({ unitId: unit.id, userId: builderId, action: 'created', changes: { status: [null, r.status], label: [null, r.label] } })
+    if (r.status === 'on_loan') {
+      await db.insert(unitLoans).values({ unitId: unit.id, borrower: 'Millbrook High drama club', outOn: '2026-11-20', dueOn: '2027-02-20', createdBy: builderId })
+    }
+  }
 }

@@ -16,4 +16,10 @@ describe('what each role may do', () => {
   it('lets only the lead see the crew', () => {
     expect(roles.filter(r => can(r, 'shop:members'))).toEqual(['lead'])
   })
+  // The product brief: builders "mark units as built"; designers and the lead shape the design and its sketches.
+  it('lets leads and designers attach files to a design, and builders too record units', () => {
+    expect(roles.filter(r => can(r, 'attachment:add'))).toEqual(['lead', 'designer'])
+    expect(roles.filter(r => can(r, 'unit:edit'))).toEqual(['lead', 'designer', 'builder'])
+    expect(roles.filter(r => can(r, 'unit:view'))).toEqual([...roles])
+  })
 })

@@ -52,6 +52,7 @@ describe('body limits by route', () => {
     expect(bodyRule('/api/me/preferences').limit).toBeLessThanOrEqual(16 * 1024)
     expect(bodyRule('/api/designs/abc/revisions').limit).toBeGreaterThan(bodyRule('/api/auth/login').limit)
     expect(bodyRule('/api/designs/abc/attachments')).toEqual({ limit: BODY_LIMITS.attachment, multipart: true })
+    expect(bodyRule('/api/units/abc/photos')).toEqual({ limit: BODY_LIMITS.attachment, multipart: true })
     // The uploads limit is 15 MB; the framing of a multipart body needs a little more.
     expect(BODY_LIMITS.attachment).toBeGreaterThan(15 * 1024 * 1024)
     expect(bodyRule('/api/designs').multipart).toBe(false)

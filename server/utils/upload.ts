@@ -1,0 +1,94 @@
+import type { H3Event } from 'h3'
+import { fileTypeFromBuffer } from 'file-type'
+
+/** The largest file a shop may upload. */
+export const UPLOAD_LIMIT = 15 * 1024 * 1024
+// Room for the multipart boundaries and part headers around the file.
+const ENVELOPE = 64 * 1024
+
+export const acceptedTypes = {
+  'image/png': 'image',
+  'image/jpeg': 'image',
+  'image/webp': 'image',
+  'application/pdf': 'pdf',
+} as const
+export type AcceptedType = keyof typeof acceptedTypes
+
+export interface UploadedFile { name: string; bytes: Uint8Array; contentType: AcceptedType; kind: 'image' | 'pdf' }
+
+function tooLarge(): Error {
+  return createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: `Files may be at most ${UPLOAD_LIMIT / 1024 / 1024} MB`, data: { fields: { file: `Files may be at most ${UPLOAD_LIMIT / 1024 / 1024} MB` } } })
+}
+
+/**
+ * Reads the request body, stopping at the limit: a body announced or found
+ * larger is refused with 413 as soon as it passes the limit, never buffered whole.
+ */
+async function readLimited(event: H3Event, limit: number): Promise<Buffer> {
+  const announced = Number(getRequestHeader(event, 'content-length') ?? 'NaN')
+  if (Number.isFinite(announced) && announced > limit) throw tooLarge()
+  const req = event.node.req
+  const chunks: Buffer[] = []
+  let total = 0
+  return new Promise<Buffer>((resolve, reject) => {
+    const onData = (chunk: Buffer) => {
+      total += chunk.length
+      if (total > limit) {
+        req.off('data', onData)
+        // Drain the rest unread so the connection can carry the 413 answer.
+        req.resume()
+        reject(tooLarge())
+        return
+      }
+      chunks.push(chunk)
+    }
+    req.on('data', onData)
+    let ended = false
+    req.once('end', () => {
+      ended = true
+      resolve(Buffer.concat(chunks))
+    })
+    req.once('error', reject)
+    // A sender that goes away mid-upload: give up rather than wait for an end that never comes.
+    req.once('close', () => {
+      if (!ended) reject(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The upload was interrupted' }))
+    })
+  })
+}
+
+/**
+ * The one file of a multipart form (field `file`), its type read from its
+ * first bytes (never from its name or the sender's word): PNG, JPEG, WebP or
+ * PDF, else 415; over the limit, 413.
+ */
+export async function readUpload(event: H3Event): Promise<UploadedFile> {
+  const type = getRequestHeader(event, 'content-type') ?? ''
+  if (!/^multipart\/form-data;/i.test(type)) {
+    throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: 'Send the file as multipart/form-data in a field named “file”' })
+  }
+  const body = await readLimited(event, UPLOAD_LIMIT + ENVELOPE)
+  let form: FormData
+  try {
+    form = await new Response(new Uint8Array(body.buffer, body.byteOffset, body.byteLength) as Uint8Array<ArrayBuffer>, { headers: { 'content-type': type } }).formData()
+  }
+  catch {
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The upload could not be read as a multipart form' })
+  }
+  const file = form.get('file')
+  if (!file || typeof file === 'string') invalid({ file: 'Choose a file to upload' })
+  if (file.size === 0) invalid({ file: 'The file is empty' })
+  if (file.size > UPLOAD_LIMIT) throw tooLarge()
+  const bytes = new Uint8Array(await file.arrayBuffer())
+  const found = await fileTypeFromBuffer(bytes)
+  if (!found || !(found.mime in acceptedTypes)) {
+    throw createError({
+      statusCode: 415,
+      statusMessage: 'Unsupported Media Type',
+      message: `This file is ${found ? `a ${found.ext.toUpperCase()} file` : 'not a type we recognise'}: upload a PNG, JPEG or WebP image, or a PDF`,
+      data: { fields: { file: 'Upload a PNG, JPEG or WebP image, or a PDF' } },
+    })
+  }
+  const contentType = found.mime as AcceptedType
+  const name = (file.name || 'upload').replace(/[\\/\u0000-\u001f]/g, '_').slice(0, 200)
+  return { name, bytes, contentType, kind: acceptedTypes[contentType] }
+}
