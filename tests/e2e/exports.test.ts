@@ -326,9 +326,9 @@ describe('the guide-bushing pattern line read back from the downloaded PDF', () 
     expect(widerBushing).toBeLessThan(base)
   })
 
-  /** A design of its own whose 6-1/2 in pockets are routed (past hole-saw sizes), so they get pattern rings. */
+  /** A design of its own whose 6-1/2 in pockets are routed (past hole-saw sizes), so they get pattern rings; set out near the edge, so the web past each is about 32 mm. */
   async function routedDesign(): Promise<{ id: string; outline: Pt[]; holes: ICircleEntity[] }> {
-    const params = { tubeDiameter: 609.6, casterCount: 4, casterOffset: 190, pocketDiameter: 165.1, rotation: 45, access: { enabled: false }, lobes: { count: 6, reach: 127, seed: 21 } }
+    const params = { tubeDiameter: 609.6, casterCount: 4, casterOffset: 250, pocketDiameter: 165.1, rotation: 45, access: { enabled: false }, lobes: { count: 6, reach: 127, seed: 21 } }
     const created = await api('/api/designs', { method: 'POST', cookie: cookies.designer, body: { name: `Export routed pockets ${Date.now()}`, params } })
     expect(created.status).toBe(201)
     const id = created.body.revision.id as string
