@@ -12,6 +12,7 @@
 // Sizes marked "from memory" are common shop practice, not a published table.
 
 import { z } from 'zod'
+import { skirtSchema } from './skirt/settings'
 
 /** Inches to millimetres, rounded to a micrometre so stored defaults read cleanly (3 in is 76.2, not 76.19999999999999). */
 function inch(n: number): number {
@@ -121,6 +122,7 @@ const baseSchema = z.object({
   sheetThickness: length(3, 40, inch(0.703)),
   /** Least acceptable gap between the plate's underside and the floor, mm: clears floor joints, tape and cable covers. Default 1/4 in (from memory). */
   minFloorGap: length(0, 100, inch(0.25)),
+  skirt: skirtSchema.prefault({}),
 })
 
 type BaseParams = z.output<typeof baseSchema>
