@@ -66,3 +66,6 @@ export {
   type WrapNotch,
   type TubeWrap,
 } from './tube-wrap-pdf'
+export { withExtraMarks, type ExtraMarks } from './extra-marks'
+export { plateStationMarks, wrapStripMarks } from './skirt-marks'
+export { renderSkirtProfilesPdf, planSkirtProfiles, skirtProfileLayout, type SkirtProfileOptions, type ProfileRib } from './skirt-profiles-pdf'

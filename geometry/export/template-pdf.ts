@@ -3,6 +3,7 @@
 
 import type { Plate, Point } from '../types'
 import type { FontBytes } from './fonts'
+import { withExtraMarks, type ExtraMarks } from './extra-marks'
 import { COLOURS, Ops, type LineStyle } from './pdf-ops'
 import { offsetPolygon } from './polyline'
 import { renderTiledPdf, type LegendEntry, type TemplateMeta, type TiledDrawing } from './tiled-pdf'
@@ -37,6 +38,8 @@ export interface TemplateOptions {
   meta?: TemplateMeta
   /** Font file bytes (WOFF or TTF). Default: read on the server from @fontsource/ibm-plex-sans. */
   font?: FontBytes
+  /** Marks another feature adds (e.g. skirt stations), drawn over the plate. */
+  extraMarks?: ExtraMarks[]
 }
 
 /** Full-size line styles, widths and dashes in mm. */
@@ -235,7 +238,7 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
     legend,
     notes,
   }
-  return { drawing, tiling }
+  return { drawing: withExtraMarks(drawing, options.extraMarks), tiling }
 }
 
 /** The tiled full-size template as PDF bytes: a cover sheet, then each printed sheet. */

@@ -13,7 +13,7 @@ export type SkirtProfile = (typeof SKIRT_PROFILES)[number]
 export const skirtSchema = z
   .object({
     /** Height where the strips meet the tube above the plate's top face, mm (in the crotches, or everywhere when rootHeight is empty). */
-    height: z.number().finite().min(5).max(3000).default(6 * IN),
+    height: z.number().finite().min(5).max(3000).default(5 * IN),
     /** Height over the longest root, mm; strips between are interpolated by their run. Empty: one height all round. */
     rootHeight: z.number().finite().min(5).max(3000).nullable().default(null),
     /** straight: flat strips; quarter-ellipse: a fillet meeting the tube upright and the plate flat; eased: half way between the two. */

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { buildPlate, plateParamsSchema, type Plate } from '../../geometry'
+import { skirtMarks } from './skirt'
 import {
   renderTemplatePdf, renderTubeWrapPdf, renderCutDxf, renderCutSvg, exportFileName, PAPER_NAMES,
   type PaperName, type FontBytes,
@@ -86,11 +87,12 @@ export function templatePdf(plate: Plate, revision: RevisionForExport, q: z.outp
     bushing: q.bushing !== undefined && q.bit !== undefined ? { bushingDiameter: q.bushing, bitDiameter: q.bit } : undefined,
     meta: meta(revision),
     font,
+    extraMarks: skirtMarks(plate).plate,
   })
 }
 
 export function tubeWrapPdf(plate: Plate, revision: RevisionForExport, q: z.output<typeof tubeWrapQuerySchema>, font: FontBytes) {
-  return renderTubeWrapPdf(plate, { paper: q.paper, orientation: q.orientation, overlap: q.overlap, margin: q.margin, units: q.units, height: q.height, meta: meta(revision), font })
+  return renderTubeWrapPdf(plate, { paper: q.paper, orientation: q.orientation, overlap: q.overlap, margin: q.margin, units: q.units, height: q.height, meta: meta(revision), font, extraMarks: skirtMarks(plate, q.height, q.units).wrap })
 }
 
 export function cutDxf(plate: Plate, q: z.output<typeof cutQuerySchema>): string {
