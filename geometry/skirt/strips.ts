@@ -83,7 +83,7 @@ export function profileLength(run: number, rise: number, profile: SkirtProfile):
     if (profile === 'quarter-ellipse') return Math.hypot(ex, ey)
     return Math.hypot((a + ex) / 2, (b + ey) / 2)
   }
-  const n = 512
+  const n = 128
   const h = 1 / n
   let sum = speed(0) + speed(1)
   for (let i = 1; i < n; i++) sum += speed(i * h) * (i % 2 ? 4 : 2)
@@ -175,10 +175,13 @@ function autoStations(w: Walk, start: number, pitch: number, flatness: number): 
   const least = Math.max(1, pitch / 16)
   const out = [start]
   let s = start
+  let last = pitch
   while (s - start < per) {
-    let step = Math.min(pitch, start + per - s)
-    while (step > least && standOff(w, s, s + step) > flatness) step *= 0.85
+    // Try a little past the last step first: the edge's turning changes gradually, so this saves most retries.
+    let step = Math.min(pitch, last * 1.4, start + per - s)
+    while (step > least && standOff(w, s, s + step) > flatness) step *= 0.9
     step = Math.max(step, Math.min(least, start + per - s))
+    last = step
     s += step
     if (start + per - s < least * 0.5) break
     out.push(s)

@@ -93,6 +93,8 @@ describe('the skirt panel in Chromium', () => {
     expect(await qty()).toBe(24)
     expect((await page.getByTestId('skirt-totals').textContent())).toContain('24')
     await page.getByTestId('plate-canvas').screenshot({ path: `${shots}/skirt-canvas.png` })
+    // The panel scrolls inside its column; it never stretches the window.
+    expect(await page.evaluate(() => document.documentElement.scrollHeight)).toBeLessThanOrEqual(900)
     await panel.screenshot({ path: `${shots}/skirt-panel.png` })
 
     await page.getByLabel('Stations').fill('30')

@@ -183,3 +183,19 @@ describe('cut list', () => {
     expect(p.skirt.count).toBeNull()
   })
 })
+
+describe('contract (CONTRACTS.md)', () => {
+  it('skirtStrips(plate, { height, count, profile }) gives { strips: { angle, run, rise, length }[] } in degrees and mm', async () => {
+    const geometry = await import('../../../geometry')
+    const plate = geometry.buildPlate(geometry.plateParamsSchema.parse({}))
+    const { strips } = geometry.skirtStrips(plate, { height: 150, count: 12, profile: 'straight' })
+    expect(strips).toHaveLength(12)
+    for (const s of strips) {
+      expect(s.angle).toBeGreaterThanOrEqual(0)
+      expect(s.angle).toBeLessThan(360)
+      expect(s.rise).toBe(150)
+      // Pythagoras.
+      expect(s.length).toBeCloseTo(Math.hypot(s.run, 150), 6)
+    }
+  })
+})
