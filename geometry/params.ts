@@ -13,6 +13,7 @@
 
 import { z } from 'zod'
 import { unitSchema } from './stability/unit-params'
+import { skirtSchema } from './skirt/settings'
 
 /** Inches to millimetres, rounded to a micrometre so stored defaults read cleanly (3 in is 76.2, not 76.19999999999999). */
 function inch(n: number): number {
@@ -161,6 +162,7 @@ const baseSchema = z.object({
   minFloorGap: length(0, 100, inch(0.25)),
   /** What stands on the plate (load, counterweight, caster rating, push to check); see geometry/stability. */
   unit: unitSchema.prefault({}),
+  skirt: skirtSchema.prefault({}),
 })
 
 type BaseParams = z.output<typeof baseSchema>

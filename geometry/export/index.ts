@@ -84,3 +84,6 @@ export {
   type TubeWrap,
 } from './tube-wrap-pdf'
 export { renderBuildSheetPdf, chooseScale, scaleLabel, type BuildSheetOptions, type BuildSheetMeta } from './build-sheet-pdf'
+export { withExtraMarks, type ExtraMarks } from './extra-marks'
+export { plateStationMarks, wrapStripMarks } from './skirt-marks'
+export { renderSkirtProfilesPdf, planSkirtProfiles, skirtProfileLayout, type SkirtProfileOptions, type ProfileRib } from './skirt-profiles-pdf'

@@ -4,6 +4,7 @@
 import type { Plate, Point } from '../types'
 import { signedArea } from '../math/polygon'
 import type { FontBytes } from './fonts'
+import { withExtraMarks, type ExtraMarks } from './extra-marks'
 import { COLOURS, Ops, type LineStyle } from './pdf-ops'
 import { guideOffset, guidePattern, type GuidePattern, type UnreachableRun } from './guide-line'
 import { assertPlateLayer, PLATE_LAYER_LABEL, type PlateLayer } from './layers'
@@ -41,6 +42,8 @@ export interface TemplateOptions {
   meta?: TemplateMeta
   /** Font file bytes (WOFF or TTF). Default: read on the server from @fontsource/ibm-plex-sans. */
   font?: FontBytes
+  /** Marks another feature adds (e.g. skirt stations), drawn over the plate. */
+  extraMarks?: ExtraMarks[]
 }
 
 /** Full-size line styles, widths and dashes in mm. */
@@ -303,7 +306,7 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
     legend,
     notes,
   }
-  return { drawing, tiling }
+  return { drawing: withExtraMarks(drawing, options.extraMarks), tiling }
 }
 
 /** The tiled full-size template as PDF bytes: a cover sheet, then each printed sheet. */

@@ -5,6 +5,7 @@
 
 import type { Plate, Point } from '../types'
 import type { FontBytes } from './fonts'
+import { withExtraMarks, type ExtraMarks } from './extra-marks'
 import { COLOURS, Ops } from './pdf-ops'
 import { renderTiledPdf, type LegendEntry, type TemplateMeta, type TiledDrawing } from './tiled-pdf'
 import { boundsOf, DEFAULT_PAD, tileContent, type Orientation, type PaperName, type Tiling } from './tiling'
@@ -33,6 +34,8 @@ export interface TubeWrapOptions {
   tab?: number
   meta?: TemplateMeta
   font?: FontBytes
+  /** Marks another feature adds (e.g. where skirt strips land), drawn over the strip. */
+  extraMarks?: ExtraMarks[]
 }
 
 export interface WrapNotch {
@@ -176,7 +179,7 @@ export function planTubeWrap(plate: Plate, options: TubeWrapOptions): TubeWrap {
       `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them. Notch height ${formatShopLength(layout.notchHeight, units)}: the pan's rise above the plate plus a clearance for its crown and the caster's nuts.`,
     ],
   }
-  return { drawing, tiling, layout }
+  return { drawing: withExtraMarks(drawing, options.extraMarks), tiling, layout }
 }
 
 export async function renderTubeWrapPdf(plate: Plate, options: TubeWrapOptions): Promise<Uint8Array> {

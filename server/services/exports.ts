@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { buildPlate, plateParamsSchema, type Plate } from '../../geometry'
+import { skirtMarks } from './skirt'
 import {
   renderTemplatePdf, renderTubeWrapPdf, renderCutDxf, renderCutSvg, exportFileName, PAPER_NAMES,
   PLATE_LAYERS, PLATE_LAYER_SUFFIX, MirrorRabbetError,
@@ -95,11 +96,12 @@ export function templatePdf(plate: Plate, revision: RevisionForExport, q: z.outp
     layer: q.layer,
     meta: meta(revision),
     font,
+    extraMarks: skirtMarks(plate).plate,
   })
 }
 
 export function tubeWrapPdf(plate: Plate, revision: RevisionForExport, q: z.output<typeof tubeWrapQuerySchema>, font: FontBytes) {
-  return renderTubeWrapPdf(plate, { paper: q.paper, orientation: q.orientation, overlap: q.overlap, margin: q.margin, units: q.units, height: q.height, meta: meta(revision), font })
+  return renderTubeWrapPdf(plate, { paper: q.paper, orientation: q.orientation, overlap: q.overlap, margin: q.margin, units: q.units, height: q.height, meta: meta(revision), font, extraMarks: skirtMarks(plate, q.height, q.units).wrap })
 }
 
 /** A refusal that depends on the plate, not only on the query: a 422 on the field that asked for it. */
