@@ -3,13 +3,15 @@
 export const roles = ['lead', 'designer', 'builder', 'viewer'] as const
 export type ShopRole = (typeof roles)[number]
 
-export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view'
+export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view' | 'design:share' | 'shop:activity'
 
 const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'design:view': roles,
   'design:create': ['lead', 'designer'],
   'design:edit': ['lead', 'designer'],
   'shop:members': ['lead'],
+  'design:share': ['lead', 'designer'],
+  'shop:activity': ['lead'],
 }
 
 export function can(role: ShopRole | undefined | null, action: ShopAction): boolean {

@@ -1,4 +1,7 @@
+import { rmSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
 import type { TestProject } from 'vitest/node'
+import { startMailFake } from '../../scripts/mail-fake'
 import { applyMigrations } from '../../scripts/migrate'
 import { hasher, runSeed } from '../../scripts/seed'
 import { recreateDatabase, seedOtherShop, testDatabaseUrl } from './support/fixtures'
@@ -9,6 +12,7 @@ declare module 'vitest' {
     baseUrl: string
     databaseUrl: string
     other: { designId: string; revisionId: string }
+    mailDir: string
   }
 }
 
@@ -23,7 +27,15 @@ export default async function setup(project: TestProject) {
   await runSeed(databaseUrl)
   const other = await seedOtherShop(databaseUrl, p => hasher.make(p))
 
+  // The test run's own mail fake, on a free port, with its own folder.
+  const mailDir = fileURLToPath(new URL('../../.data/mail-test', import.meta.url))
+  rmSync(mailDir, { recursive: true, force: true })
+  const mail = await startMailFake({ port: 0, dir: mailDir })
+
   const { baseUrl, stop } = await startBuiltServer({
+    SMTP_URL: `smtp://127.0.0.1:${mail.port}`,
+    MAIL_DIR: mailDir,
+    MAIL_FAKE: '1',
     DATABASE_URL: databaseUrl,
     NUXT_TRUST_PROXY: '1',
     NUXT_SESSION_PASSWORD: process.env.NUXT_SESSION_PASSWORD ?? 'test-session-password-of-at-least-32-chars',
@@ -32,6 +44,10 @@ export default async function setup(project: TestProject) {
   project.provide('baseUrl', baseUrl)
   project.provide('databaseUrl', databaseUrl)
   project.provide('other', other)
+  project.provide('mailDir', mailDir)
 
-  return stop
+  return async () => {
+    await stop()
+    await mail.stop()
+  }
 }
