@@ -27,6 +27,10 @@ export default defineNuxtConfig({
   runtimeConfig: {
     // Set NUXT_TRUST_PROXY=1 when a reverse proxy in front sets X-Forwarded-For.
     trustProxy: false as boolean | string,
+    public: {
+      // NUXT_PUBLIC_MAIL_PAGE=1 (set by the start script while the local mail fake is the mail server) shows the lead the Mail page.
+      mailPage: false as boolean | string | number,
+    },
   },
   nitro: {
     externals: { external: ['paper'] },

@@ -76,5 +76,5 @@ ensure_mail() {
     [ -s "$pidfile" ] || { echo "setup: the mail fake did not start in 30 s" >&2; exit 1; }
     echo "setup: mail fake on 127.0.0.1:$port, messages in $MAIL_DIR"
   fi
-  export SMTP_URL="smtp://127.0.0.1:$port" MAIL_FAKE=1
+  export SMTP_URL="smtp://127.0.0.1:$port" MAIL_FAKE=1 NUXT_PUBLIC_MAIL_PAGE=1
 }

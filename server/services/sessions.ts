@@ -98,7 +98,10 @@ export async function endShopSessions(db: Database, userId: string, shopId: stri
   await db.delete(sessions).where(and(eq(sessions.userId, userId), eq(sessions.shopId, shopId)))
 }
 
-/** Drops sessions past their end, so the table does not grow forever. */
-export async function pruneSessions(db: Database): Promise<void> {
-  await db.delete(sessions).where(sql`${sessions.expiresAt} <= now() or ${sessions.lastSeenAt} + make_interval(mins => ${sessions.idleTimeoutMinutes}) <= now()`)
+/** Drops the account's sessions that have ended, so the table does not grow with every sign-in. */
+export async function pruneSessions(db: Database, userId: string): Promise<void> {
+  await db.delete(sessions).where(and(
+    eq(sessions.userId, userId),
+    sql`(${sessions.expiresAt} <= now() or ${sessions.lastSeenAt} + make_interval(mins => ${sessions.idleTimeoutMinutes}) <= now())`,
+  ))
 }

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import { can, type ShopAction, type ShopRole } from '../../shared/utils/permissions'
-import { createSession, endSession, findSessionMember, policyFromEnv, type SessionMember } from '../services/sessions'
+import { createSession, endSession, findSessionMember, policyFromEnv, pruneSessions, type SessionMember } from '../services/sessions'
 
 export interface Member {
   userId: string
@@ -63,6 +63,7 @@ export async function requireAction(event: H3Event, action: ShopAction): Promise
 export async function startSession(event: H3Event, userId: string, shopId: string): Promise<void> {
   const previous = await cookieToken(event)
   if (previous) await endSession(useDb(), previous)
+  await pruneSessions(useDb(), userId)
   const token = await createSession(useDb(), { userId, shopId }, policyFromEnv())
   await replaceUserSession(event, { sid: token })
   event.context.member = undefined

@@ -36,6 +36,7 @@ export default async function setup(project: TestProject) {
     SMTP_URL: `smtp://127.0.0.1:${mail.port}`,
     MAIL_DIR: mailDir,
     MAIL_FAKE: '1',
+    NUXT_PUBLIC_MAIL_PAGE: '1',
     DATABASE_URL: databaseUrl,
     NUXT_TRUST_PROXY: '1',
     NUXT_SESSION_PASSWORD: process.env.NUXT_SESSION_PASSWORD ?? 'test-session-password-of-at-least-32-chars',

@@ -12,7 +12,7 @@ export const sessionPassword = () => process.env.NUXT_SESSION_PASSWORD ?? 'test-
 export async function cookieContents(cookie: string): Promise<Record<string, unknown>> {
   const value = cookie.split('; ').find(c => c.startsWith('nuxt-session='))?.slice('nuxt-session='.length)
   if (!value) throw new Error('no session cookie')
-  const unsealed = await unseal(webcrypto as unknown as Crypto, decodeURIComponent(value), sessionPassword(), defaults) as { data: Record<string, unknown> }
+  const unsealed = await unseal(webcrypto as unknown as Parameters<typeof unseal>[0], decodeURIComponent(value), sessionPassword(), defaults) as { data: Record<string, unknown> }
   return unsealed.data
 }
 
