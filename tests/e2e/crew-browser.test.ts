@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { launchChromium } from './support/browser'
 import { api, demo, signIn } from './support/api'
-import { uniqueEmail } from './support/crew'
+import { makeShop, uniqueEmail } from './support/crew'
 import { waitForMail } from './support/mail'
 
 const shots = 'test-results/e2e'
@@ -49,8 +49,10 @@ describe('crew and sharing in Chromium', () => {
   it('the lead invites an address; the newcomer follows the e-mailed link, sets name and password, and signs in as a designer', async () => {
     const base = inject('baseUrl')
     const newcomer = uniqueEmail('browser-newcomer')
+    // A shop of this test's own, so the demo crew stays as seeded.
+    const { people: [owner] } = await makeShop('Willowbrook Players', [{ role: 'lead', name: 'Lane Willow' }])
     const lead = await freshPage()
-    await signInThroughForm(lead.page, demo.lead, 'rootplate-demo')
+    await signInThroughForm(lead.page, owner!.email, owner!.password)
     await lead.page.getByRole('link', { name: 'Crew' }).click()
     await lead.page.waitForURL(`${base}/shop/members`)
     await lead.page.getByTestId('members').waitFor()
@@ -62,28 +64,28 @@ describe('crew and sharing in Chromium', () => {
     await lead.page.screenshot({ path: `${shots}/crew-page.png`, fullPage: true })
 
     // The message, read from the fake's folder with mailparser.
-    const mail = await waitForMail(newcomer, /Join Alder Street Players/)
-    expect(mail.text).toContain('Alder Street Players')
+    const mail = await waitForMail(newcomer, /Join Willowbrook Players/)
+    expect(mail.text).toContain('Willowbrook Players')
     expect(mail.html).toContain(mail.link)
 
     // The lead's development mail page shows it too.
     await lead.page.getByRole('link', { name: 'Mail' }).click()
     await lead.page.waitForURL(`${base}/dev/mail`)
     await lead.page.getByTestId('mail-list').getByText(`to ${newcomer}`).click()
-    await expect(lead.page.getByTestId('mail-message').getByRole('heading').textContent()).resolves.toBe('Join Alder Street Players on Rootplate')
+    await expect(lead.page.getByTestId('mail-message').getByRole('heading').textContent()).resolves.toBe('Join Willowbrook Players on Rootplate')
     await lead.page.screenshot({ path: `${shots}/mail-page.png`, fullPage: true })
     await lead.context.close()
 
     // A browser without any session follows the link.
     const guest = await freshPage()
     await guest.page.goto(mail.link)
-    await guest.page.getByRole('heading', { name: 'Join Alder Street Players' }).waitFor()
+    await guest.page.getByRole('heading', { name: 'Join Willowbrook Players' }).waitFor()
     await expect(guest.page.getByText(newcomer).isVisible()).resolves.toBe(true)
     await guest.page.getByLabel('Your name').fill('Wren Newcomer')
     await guest.page.getByLabel('Password', { exact: true }).fill('sawdust-and-glue')
     await guest.page.getByLabel('Password again').fill('sawdust-and-glue')
     await guest.page.screenshot({ path: `${shots}/invitation-page.png`, fullPage: true })
-    await guest.page.getByRole('button', { name: 'Join Alder Street Players' }).click()
+    await guest.page.getByRole('button', { name: 'Join Willowbrook Players' }).click()
     await guest.page.waitForURL(`${base}/`)
     await expect(guest.page.getByTestId('role').textContent()).resolves.toBe('Designer')
     await guest.page.getByRole('button', { name: 'Sign out' }).click()

@@ -1,24 +1,30 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, demo, signIn, type DemoRole } from './support/api'
 import { OTHER_LEAD } from './support/fixtures'
-import { cookieContents, makeShop, sessionRowId, setCookieOf, signInAs, tokenOf, uniqueEmail } from './support/crew'
+import { cookieContents, makeShop, sessionRowId, setCookieOf, signInAs, tokenOf, uniqueEmail, type TestPerson } from './support/crew'
 import { testSql } from './support/db'
 import { mailFilesTo, waitForMail } from './support/mail'
 
 const roles = Object.keys(demo) as DemoRole[]
 const cookies = {} as Record<DemoRole, string>
 let otherLead = ''
+// Invitations go into a shop of this file's own, so the demo shop's crew stays as seeded.
+const SHOP = 'Birchwood Stage Crew'
+let crew: TestPerson[] = []
+let crewLead = ''
 
 beforeAll(async () => {
   for (const r of roles) cookies[r] = await signIn(demo[r])
   otherLead = await signIn(OTHER_LEAD.email, OTHER_LEAD.password)
+  crew = (await makeShop(SHOP, [{ role: 'lead', name: 'Bree Birch' }, { role: 'builder', name: 'Bo Birch' }])).people
+  crewLead = await signInAs(crew[0]!.email, crew[0]!.password)
 })
 
-/** Invites an address as the demo lead and returns the link from the e-mail that arrives in the fake's folder. */
+/** Invites an address as this file's shop lead and returns the link from the e-mail that arrives in the fake's folder. */
 async function invite(email: string, role: DemoRole) {
-  const res = await api('/api/shop/invitations', { method: 'POST', cookie: cookies.lead, body: { email, role } })
+  const res = await api('/api/shop/invitations', { method: 'POST', cookie: crewLead, body: { email, role } })
   expect(res.status).toBe(201)
-  const caught = await waitForMail(email, /Join Alder Street Players/)
+  const caught = await waitForMail(email, new RegExp(`Join ${SHOP}`))
   return { id: res.body.id as string, ...caught }
 }
 
@@ -119,14 +125,14 @@ describe('invitations', () => {
   })
 
   it('answers 422 with field messages for a bad address or role', async () => {
-    const res = await api('/api/shop/invitations', { method: 'POST', cookie: cookies.lead, body: { email: 'nobody', role: 'boss' } })
+    const res = await api('/api/shop/invitations', { method: 'POST', cookie: crewLead, body: { email: 'nobody', role: 'boss' } })
     expect(res.status).toBe(422)
     expect(res.body.data.fields.email).toMatch(/e-mail/)
     expect(res.body.data.fields.role).toMatch(/lead, designer, builder, viewer/)
   })
 
   it('answers 409 for someone already in the crew', async () => {
-    const res = await api('/api/shop/invitations', { method: 'POST', cookie: cookies.lead, body: { email: demo.builder.toUpperCase(), role: 'viewer' } })
+    const res = await api('/api/shop/invitations', { method: 'POST', cookie: crewLead, body: { email: crew[1]!.email.toUpperCase(), role: 'viewer' } })
     expect(res.status).toBe(409)
     expect(res.body.data.fields.email).toMatch(/already in your crew/)
   })
@@ -134,8 +140,8 @@ describe('invitations', () => {
   it('mails a link with a plain-text and an HTML part naming the shop; the link sets a name and password once', async () => {
     const email = uniqueEmail('newcomer')
     const inv = await invite(email, 'designer')
-    expect(inv.text).toContain('Alder Street Players')
-    expect(inv.html).toContain('Alder Street Players')
+    expect(inv.text).toContain(SHOP)
+    expect(inv.html).toContain(SHOP)
     expect(inv.html).toContain(inv.link)
     expect(inv.link).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/join\/[\w-]{43}$/)
     // Only the token's hash is stored (SHA-256 of the link's token, computed here independently).
@@ -143,14 +149,14 @@ describe('invitations', () => {
     expect(rows[0]!.token_hash).not.toBe(tokenOf(inv.link))
     expect(rows[0]!.token_hash).toMatch(/^[0-9a-f]{64}$/)
 
-    const pending = await api('/api/shop/invitations', { cookie: cookies.lead })
+    const pending = await api('/api/shop/invitations', { cookie: crewLead })
     expect(pending.body.map((i: { email: string }) => i.email)).toContain(email)
-    expect((await api('/api/shop/invitations', { method: 'POST', cookie: cookies.lead, body: { email, role: 'viewer' } })).status).toBe(409)
+    expect((await api('/api/shop/invitations', { method: 'POST', cookie: crewLead, body: { email, role: 'viewer' } })).status).toBe(409)
 
     const token = tokenOf(inv.link)
     const seen = await api(`/api/invitations/${token}`)
     expect(seen.status).toBe(200)
-    expect(seen.body).toMatchObject({ email, role: 'designer', shopName: 'Alder Street Players', hasAccount: false })
+    expect(seen.body).toMatchObject({ email, role: 'designer', shopName: SHOP, hasAccount: false })
 
     const noName = await api(`/api/invitations/${token}/accept`, { method: 'POST', body: { password: 'long-enough-pass' } })
     expect(noName.status).toBe(422)
@@ -167,7 +173,7 @@ describe('invitations', () => {
     // Used once: the same link now answers 410, and is gone from the pending list.
     expect((await api(`/api/invitations/${token}`)).status).toBe(410)
     expect((await api(`/api/invitations/${token}/accept`, { method: 'POST', body: { name: 'Again', password: 'long-enough-pass' } })).status).toBe(410)
-    const after = await api('/api/shop/invitations', { cookie: cookies.lead })
+    const after = await api('/api/shop/invitations', { cookie: crewLead })
     expect(after.body.map((i: { email: string }) => i.email)).not.toContain(email)
     const signedIn = await signInAs(email, 'long-enough-pass')
     expect((await api('/api/me', { cookie: signedIn })).body.role).toBe('designer')
@@ -185,7 +191,7 @@ describe('invitations', () => {
     expect(ok.status).toBe(200)
     expect(ok.body.joined).toBe('existing-account')
     const me = await api('/api/me', { cookie: setCookieOf(ok.headers) })
-    expect(me.body).toMatchObject({ userId: p!.id, role: 'builder', shopName: 'Alder Street Players' })
+    expect(me.body).toMatchObject({ userId: p!.id, role: 'builder', shopName: SHOP })
     const count = await testSql<{ n: number }[]>('select count(*)::int as n from users where lower(email) = lower($1)', [p!.email])
     expect(count[0]!.n).toBe(1)
     const shopsOf = await testSql<{ n: number }[]>('select count(*)::int as n from memberships where user_id = $1', [p!.id])
@@ -196,8 +202,8 @@ describe('invitations', () => {
     const email = uniqueEmail('resend')
     const first = await invite(email, 'viewer')
     const seen = await mailFilesTo(email)
-    expect((await api(`/api/shop/invitations/${first.id}/resend`, { method: 'POST', cookie: cookies.lead })).status).toBe(200)
-    const second = await waitForMail(email, /Join Alder Street Players/, seen)
+    expect((await api(`/api/shop/invitations/${first.id}/resend`, { method: 'POST', cookie: crewLead })).status).toBe(200)
+    const second = await waitForMail(email, new RegExp(`Join ${SHOP}`), seen)
     expect(second.link).not.toBe(first.link)
     expect((await api(`/api/invitations/${tokenOf(first.link)}`)).status).toBe(404)
     expect((await api(`/api/invitations/${tokenOf(second.link)}`)).status).toBe(200)
@@ -207,10 +213,10 @@ describe('invitations', () => {
     expect((await api(`/api/shop/invitations/${first.id}/resend`, { method: 'POST', cookie: otherLead })).status).toBe(404)
     expect((await api(`/api/shop/invitations/${first.id}`, { method: 'DELETE', cookie: otherLead })).status).toBe(404)
 
-    expect((await api(`/api/shop/invitations/${first.id}`, { method: 'DELETE', cookie: cookies.lead })).status).toBe(204)
+    expect((await api(`/api/shop/invitations/${first.id}`, { method: 'DELETE', cookie: crewLead })).status).toBe(204)
     expect((await api(`/api/invitations/${tokenOf(second.link)}`)).status).toBe(404)
     expect((await api(`/api/invitations/${tokenOf(second.link)}/accept`, { method: 'POST', body: { name: 'Late', password: 'long-enough-pass' } })).status).toBe(404)
-    expect((await api(`/api/shop/invitations/${first.id}`, { method: 'DELETE', cookie: cookies.lead })).status).toBe(404)
+    expect((await api(`/api/shop/invitations/${first.id}`, { method: 'DELETE', cookie: crewLead })).status).toBe(404)
   })
 
   it('an invitation older than seven days answers 410', async () => {
@@ -373,14 +379,15 @@ describe('development mail page', () => {
   it('lists the fake\'s messages of the lead\'s own shop only', async () => {
     const email = uniqueEmail('mailpage')
     await invite(email, 'viewer')
-    const mine = await api('/api/dev/mail', { cookie: cookies.lead })
+    const mine = await api('/api/dev/mail', { cookie: crewLead })
     expect(mine.status).toBe(200)
     const found = mine.body.find((m: { to: string }) => m.to.includes(email))
-    expect(found.subject).toBe('Join Alder Street Players on Rootplate')
+    expect(found.subject).toBe(`Join ${SHOP} on Rootplate`)
     expect(found.links[0]).toMatch(/\/join\/[\w-]{43}$/)
-    const theirs = await api('/api/dev/mail', { cookie: otherLead })
+    const theirs = await api('/api/dev/mail', { cookie: cookies.lead })
     expect(theirs.status).toBe(200)
     expect(theirs.body.some((m: { to: string }) => m.to.includes(email))).toBe(false)
     expect((await api('/api/dev/mail', { cookie: cookies.designer })).status).toBe(403)
+    expect((await api('/api/dev/mail', { cookie: otherLead })).body.some((m: { to: string }) => m.to.includes(email))).toBe(false)
   })
 })
