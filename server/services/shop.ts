@@ -64,3 +64,16 @@ export async function shopName(db: Database, shopId: string): Promise<string> {
   const [row] = await db.select({ name: shops.name }).from(shops).where(eq(shops.id, shopId))
   return row?.name ?? ''
 }
+
+/** The account's shops with its role in each, the current one marked. */
+export async function listShopsOf(db: Database, userId: string, currentShopId: string) {
+  const rows = await db.select({ id: shops.id, name: shops.name, role: memberships.role })
+    .from(memberships).innerJoin(shops, eq(shops.id, memberships.shopId))
+    .where(eq(memberships.userId, userId)).orderBy(asc(memberships.createdAt))
+  return rows.map(r => ({ ...r, current: r.id === currentShopId }))
+}
+
+export async function isMemberOf(db: Database, userId: string, shopId: string): Promise<boolean> {
+  const [row] = await db.select({ id: memberships.id }).from(memberships).where(and(eq(memberships.userId, userId), eq(memberships.shopId, shopId)))
+  return !!row
+}

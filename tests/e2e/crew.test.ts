@@ -198,6 +198,26 @@ describe('invitations', () => {
     expect(shopsOf[0]!.n).toBe(2)
   })
 
+  it('an account in two shops lists them and moves between them; a shop not its own is a 404', async () => {
+    const { shopId: homeId, people: [p] } = await makeShop('Two-shop Players', [{ role: 'designer', name: 'Tam Twoshops' }])
+    const inv = await invite(p!.email, 'viewer')
+    const joined = await api(`/api/invitations/${tokenOf(inv.link)}/accept`, { method: 'POST', body: { password: p!.password } })
+    const cookie = setCookieOf(joined.headers)
+    const list = await api('/api/me/shops', { cookie })
+    expect(list.status).toBe(200)
+    expect(list.body.map((s: { name: string; role: string; current: boolean }) => [s.name, s.role, s.current])).toEqual([['Two-shop Players', 'designer', false], [SHOP, 'viewer', true]])
+    const moved = await api('/api/auth/shop', { method: 'POST', cookie, body: { shopId: homeId } })
+    expect(moved.status).toBe(200)
+    const there = setCookieOf(moved.headers)
+    expect((await api('/api/me', { cookie: there })).body).toMatchObject({ shopName: 'Two-shop Players', role: 'designer' })
+    expect((await api('/api/me', { cookie })).status).toBe(401)
+    const { shopId: strangerShop } = await makeShop('Stranger Players', [{ role: 'lead', name: 'Sol Stranger' }])
+    expect((await api('/api/auth/shop', { method: 'POST', cookie: there, body: { shopId: strangerShop } })).status).toBe(404)
+    expect((await api('/api/auth/shop', { method: 'POST', cookie: there, body: { shopId: 'x' } })).status).toBe(422)
+    expect((await api('/api/auth/shop', { method: 'POST', body: { shopId: homeId } })).status).toBe(401)
+    expect((await api('/api/me/shops')).status).toBe(401)
+  })
+
   it('resending makes a new link (the old one stops working); withdrawing ends it', async () => {
     const email = uniqueEmail('resend')
     const first = await invite(email, 'viewer')
