@@ -67,6 +67,8 @@ export async function signIn(
 }
 
 export const RESET_MINUTES = 60
+/** Reset e-mails one account may get within an hour; the answer to the asker stays the same. */
+export const RESETS_PER_HOUR = 3
 
 /**
  * A single-use reset link for the address, or null when no account has it.
@@ -76,6 +78,10 @@ export async function requestPasswordReset(db: Database, email: string): Promise
   const address = email.trim().toLowerCase()
   const user = await db.query.users.findFirst({ where: sql`lower(${users.email}) = ${address}` })
   if (!user) return null
+  // A few links an hour is plenty for a person; more would let anyone flood a mailbox.
+  const [recent] = await db.select({ n: count() }).from(passwordResets)
+    .where(and(eq(passwordResets.userId, user.id), gt(passwordResets.createdAt, new Date(Date.now() - RESET_MINUTES * 60_000))))
+  if ((recent?.n ?? 0) >= RESETS_PER_HOUR) return null
   const { token, hash } = newToken()
   await db.insert(passwordResets).values({ userId: user.id, tokenHash: hash, expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000) })
   const [shop] = await db.select({ id: shops.id, name: shops.name }).from(memberships).innerJoin(shops, eq(shops.id, memberships.shopId))

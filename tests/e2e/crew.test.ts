@@ -273,6 +273,18 @@ describe('password reset', () => {
     expect(await mailFilesTo(unknown)).toEqual([])
   })
 
+  it('sends at most three reset e-mails an hour to one account, answering every request the same', async () => {
+    const { people: [p] } = await makeShop('Flood Players', [{ role: 'viewer', name: 'Fen Flood' }])
+    const answers = []
+    for (let i = 0; i < 5; i++) answers.push(await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email } }))
+    expect(answers.map(a => a.status)).toEqual([202, 202, 202, 202, 202])
+    expect(new Set(answers.map(a => JSON.stringify(a.body))).size).toBe(1)
+    const seen: string[] = []
+    for (let i = 0; i < 3; i++) seen.push((await waitForMail(p!.email, /new Rootplate password/, seen)).file)
+    await new Promise(r => setTimeout(r, 1500))
+    expect(await mailFilesTo(p!.email)).toHaveLength(3)
+  })
+
   it('the link sets a new password once, within an hour, and ends every session of the account', async () => {
     const { people: [p] } = await makeShop('Reset Two Players', [{ role: 'builder', name: 'Rio Reset' }])
     const old = await signInAs(p!.email, p!.password)
