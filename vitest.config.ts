@@ -21,6 +21,8 @@ export default defineConfig({
           name: 'nuxt',
           include: ['tests/nuxt/**/*.test.ts'],
           environment: 'nuxt',
+          // Starting the Nuxt environment took over the 10 s default on a busy shared machine.
+          hookTimeout: 60_000,
         },
       }),
       {
