@@ -27,6 +27,10 @@ export default defineNuxtConfig({
   runtimeConfig: {
     // Set NUXT_TRUST_PROXY=1 when a reverse proxy in front sets X-Forwarded-For.
     trustProxy: false as boolean | string,
+    public: {
+      // NUXT_PUBLIC_MAIL_PAGE=1 (set by the start script while the local mail fake is the mail server) shows the lead the Mail page.
+      mailPage: false as boolean | string | number,
+    },
     // The session cookie: HttpOnly, SameSite=Lax, two weeks. `Secure` is added
     // per request by server/plugins/https.ts when the request came over HTTPS,
     // so the app still signs in over plain HTTP on a shop's LAN address.

@@ -61,3 +61,29 @@ ensure_build() {
     npx nuxt build > .data/build.log 2>&1 || { tail -n 40 .data/build.log >&2; echo "setup: the build failed (full log in .data/build.log)" >&2; exit 1; }
   fi
 }
+
+# Without SMTP_URL, mail goes to the project's local SMTP fake, which writes
+# each message as an .eml file into MAIL_DIR (.data/mail). Its port is
+# SMTP_PORT, by default PORT + 1025, so two checkouts on two web ports never
+# share one. It lives as long as the shell that started it (see start.sh).
+ensure_mail() {
+  if [ -n "${SMTP_URL:-}" ]; then return 0; fi
+  export MAIL_DIR=${MAIL_DIR:-$ROOT/.data/mail}
+  local port=${SMTP_PORT:-$(( ${PORT:-3000} + 1025 ))}
+  local pidfile=.data/mail-fake.pid pid fport
+  if [ -f "$pidfile" ] && read -r pid fport < "$pidfile" && [ "$fport" = "$port" ] && kill -0 "$pid" 2>/dev/null; then
+    echo "setup: reusing the mail fake on port $port (pid $pid)"
+  else
+    rm -f "$pidfile"
+    SMTP_PORT=$port MAIL_FAKE_PID=$pidfile node --import tsx scripts/mail-fake.ts > .data/mail-fake.log 2>&1 &
+    MAIL_FAKE_STARTED=$!
+    for _ in $(seq 1 150); do
+      [ -s "$pidfile" ] && break
+      kill -0 "$MAIL_FAKE_STARTED" 2>/dev/null || { cat .data/mail-fake.log >&2; echo "setup: the mail fake did not start" >&2; exit 1; }
+      sleep 0.2
+    done
+    [ -s "$pidfile" ] || { echo "setup: the mail fake did not start in 30 s" >&2; exit 1; }
+    echo "setup: mail fake on 127.0.0.1:$port, messages in $MAIL_DIR"
+  fi
+  export SMTP_URL="smtp://127.0.0.1:$port" MAIL_FAKE=1 NUXT_PUBLIC_MAIL_PAGE=1
+}

@@ -12,5 +12,11 @@ npx tsx scripts/seed.ts
 ensure_build
 
 export PORT=${PORT:-3000}
+MAIL_FAKE_STARTED=
+ensure_mail
+# The mail fake we started ends with the server; the database keeps running.
+stop_mail() { if [ -n "$MAIL_FAKE_STARTED" ]; then kill "$MAIL_FAKE_STARTED" 2>/dev/null || true; fi; }
+trap stop_mail EXIT
 echo "Rootplate is serving on http://localhost:$PORT (Ctrl+C stops it; 'npm run db:stop' stops the database)"
-exec node .output/server/index.mjs
+if [ "${MAIL_FAKE:-}" = 1 ]; then echo "Mail goes to the local fake: see http://localhost:$PORT/dev/mail (signed in as a lead) or $MAIL_DIR"; fi
+node .output/server/index.mjs

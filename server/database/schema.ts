@@ -214,3 +214,70 @@ export type DesignReference = typeof designReferences.$inferSelect
 export type Unit = typeof units.$inferSelect
 export type UnitEvent = typeof unitEvents.$inferSelect
 export type UnitLoan = typeof unitLoans.$inferSelect
+
+// Server-side sessions. The cookie holds only a random token; its SHA-256 is
+// the id here, so a leaked table cannot be replayed as cookies. The role is
+// never stored with the session: it is joined from memberships each request.
+export const sessions = pgTable('sessions', {
+  id: text('id').primaryKey(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  createdAt: createdAt(),
+  lastSeenAt: timestamp('last_seen_at', { withTimezone: true }).notNull().defaultNow(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  idleTimeoutMinutes: integer('idle_timeout_minutes').notNull(),
+}, t => [
+  index('sessions_user_idx').on(t.userId),
+  check('sessions_idle_positive', sql`${t.idleTimeoutMinutes} > 0`),
+])
+
+// Invitations to join a shop. Only the token's SHA-256 is kept.
+export const invitations = pgTable('invitations', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  email: text('email').notNull(),
+  role: roleEnum('role').notNull(),
+  tokenHash: text('token_hash').notNull(),
+  invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  acceptedAt: timestamp('accepted_at', { withTimezone: true }),
+  withdrawnAt: timestamp('withdrawn_at', { withTimezone: true }),
+  ...timestamps,
+}, t => [
+  uniqueIndex('invitations_token_hash_key').on(t.tokenHash),
+  index('invitations_shop_idx').on(t.shopId),
+])
+
+// Password-reset links: single use, one hour, only the token's hash kept.
+export const passwordResets = pgTable('password_resets', {
+  id: id(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: text('token_hash').notNull(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+  createdAt: createdAt(),
+}, t => [
+  uniqueIndex('password_resets_token_hash_key').on(t.tokenHash),
+  index('password_resets_user_idx').on(t.userId),
+])
+
+// Read-only links to one revision's files for an outside shop.
+export const shares = pgTable('shares', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  revisionId: uuid('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+  tokenHash: text('token_hash').notNull(),
+  note: text('note').notNull().default(''),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  withdrawnAt: timestamp('withdrawn_at', { withTimezone: true }),
+  createdAt: createdAt(),
+}, t => [
+  uniqueIndex('shares_token_hash_key').on(t.tokenHash),
+  index('shares_shop_idx').on(t.shopId),
+  index('shares_revision_idx').on(t.revisionId),
+])
+
+export type Session = typeof sessions.$inferSelect
+export type Invitation = typeof invitations.$inferSelect
+export type Share = typeof shares.$inferSelect

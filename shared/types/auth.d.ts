@@ -6,11 +6,14 @@ declare module '#auth-utils' {
     email: string
     name: string
   }
+  // The sealed cookie holds only `sid`, the server-side session's token. The
+  // other fields are filled from the database when the client fetches its
+  // session (server/plugins/session-fetch.ts); they are never stored in the cookie.
   interface UserSession {
-    shopId: string
-    shopName: string
-    role: ShopRole
-    loggedInAt: string
+    sid?: string
+    shopId?: string
+    shopName?: string
+    role?: ShopRole
   }
 }
 

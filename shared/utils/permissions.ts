@@ -3,7 +3,7 @@
 export const roles = ['lead', 'designer', 'builder', 'viewer'] as const
 export type ShopRole = (typeof roles)[number]
 
-export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view'
+export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view' | 'design:share' | 'shop:activity'
   | 'attachment:add' | 'unit:view' | 'unit:edit'
 
 const allowed: Record<ShopAction, readonly ShopRole[]> = {
@@ -16,6 +16,8 @@ const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'unit:view': roles,
   // Builders record what they built: new units, stages, loans, photos.
   'unit:edit': ['lead', 'designer', 'builder'],
+  'design:share': ['lead', 'designer'],
+  'shop:activity': ['lead'],
 }
 
 export function can(role: ShopRole | undefined | null, action: ShopAction): boolean {

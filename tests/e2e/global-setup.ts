@@ -1,6 +1,8 @@
 import { rmSync } from 'node:fs'
 import { resolve } from 'node:path'
+import { fileURLToPath } from 'node:url'
 import type { TestProject } from 'vitest/node'
+import { startMailFake } from '../../scripts/mail-fake'
 import { applyMigrations } from '../../scripts/migrate'
 import { hasher, runSeed } from '../../scripts/seed'
 import { recreateDatabase, seedOtherShop, testDatabaseUrl } from './support/fixtures'
@@ -12,6 +14,7 @@ declare module 'vitest' {
     databaseUrl: string
     other: { designId: string; revisionId: string }
     uploadsDir: string
+    mailDir: string
   }
 }
 
@@ -30,7 +33,16 @@ export default async function setup(project: TestProject) {
   const uploadsDir = resolve('.data/test-uploads')
   rmSync(uploadsDir, { recursive: true, force: true })
 
+  // The test run's own mail fake, on a free port, with its own folder.
+  const mailDir = fileURLToPath(new URL('../../.data/mail-test', import.meta.url))
+  rmSync(mailDir, { recursive: true, force: true })
+  const mail = await startMailFake({ port: 0, dir: mailDir })
+
   const { baseUrl, stop } = await startBuiltServer({
+    SMTP_URL: `smtp://127.0.0.1:${mail.port}`,
+    MAIL_DIR: mailDir,
+    MAIL_FAKE: '1',
+    NUXT_PUBLIC_MAIL_PAGE: '1',
     DATABASE_URL: databaseUrl,
     UPLOADS_DRIVER: 'fs',
     UPLOADS_DIR: uploadsDir,
@@ -43,5 +55,10 @@ export default async function setup(project: TestProject) {
   project.provide('other', other)
   project.provide('uploadsDir', uploadsDir)
 
-  return stop
+  project.provide('mailDir', mailDir)
+
+  return async () => {
+    await stop()
+    await mail.stop()
+  }
 }

@@ -24,12 +24,6 @@ export default defineEventHandler(async (event) => {
     }
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'That e-mail and password do not match an account' })
   }
-  await replaceUserSession(event, {
-    user: result.user,
-    shopId: result.shopId,
-    shopName: result.shopName,
-    role: result.role,
-    loggedInAt: new Date().toISOString(),
-  })
+  await startSession(event, result.user.id, result.shopId)
   return { user: result.user, shopId: result.shopId, shopName: result.shopName, role: result.role }
 })
