@@ -94,6 +94,9 @@ export default defineEventHandler(async (event) => {
   if (!json && !(rule.multipart && type === 'multipart/form-data')) {
     refuse(415, 'Unsupported Media Type', rule.multipart ? 'Send the file as multipart/form-data' : 'Send the request body as JSON (Content-Type: application/json)', 'unsupported-type')
   }
+  // A file route streams its own body through its own limit (server/utils/upload.ts):
+  // reading it here as well would leave that reader waiting on a stream already ended.
+  if (rule.multipart && type === 'multipart/form-data') return
   // Read once, here, within the limit; h3's body readers take it from _requestBody.
   const body = await readLimited(event, rule.limit)
   ;(event as unknown as { _requestBody?: Buffer })._requestBody = body

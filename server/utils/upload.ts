@@ -27,6 +27,12 @@ function tooLarge(): Error {
 async function readLimited(event: H3Event, limit: number): Promise<Buffer> {
   const announced = Number(getRequestHeader(event, 'content-length') ?? 'NaN')
   if (Number.isFinite(announced) && announced > limit) throw tooLarge()
+  // Already read by the request guard (a body that was not multipart): take it from there.
+  const earlier = (event as unknown as { _requestBody?: unknown })._requestBody
+  if (Buffer.isBuffer(earlier)) {
+    if (earlier.length > limit) throw tooLarge()
+    return earlier
+  }
   const req = event.node.req
   const chunks: Buffer[] = []
   let total = 0
