@@ -95,7 +95,10 @@ describe('the export panel in Chromium', () => {
   it('the builder switches to A4, sees the count change, downloads the DXF under the server\'s name, and finds A4 again next time', async () => {
     const context = await newContext({ acceptDownloads: true })
     const page = await context.newPage()
-    await openDesign(page)
+    // Seen once in several runs on a loaded machine: Chromium listed the DXF's GET as aborted although
+    // the download event had fired and the file below parsed whole. Cause not yet found; only that
+    // request's abort is let through, every other problem still fails the test.
+    await openDesign(page, [/request failed: GET .*\/cut\.dxf\?.* net::ERR_ABORTED$/])
 
     // The plate's size as the page shows it, to 1/16 in; a round plate, so width and depth nearly agree.
     const width = inches(await page.getByTestId('metric-width').textContent())
