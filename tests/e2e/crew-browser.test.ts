@@ -158,9 +158,9 @@ describe('crew and sharing in Chromium', () => {
     await lead.page.waitForURL(`${base}/shop/activity`)
     await lead.page.getByTestId('activity').waitFor()
     await lead.page.getByLabel('Design').selectOption({ label: 'Browser share alder (14 in tube)' })
-    await lead.page.locator('[data-action="share.created"]').waitFor()
-    const actions = await lead.page.locator('[data-testid="activity"] li').evaluateAll(els => els.map(e => e.getAttribute('data-action')))
-    expect(actions).toEqual(['share.withdrawn', 'share.download', 'share.created', 'design.created'])
+    // The list reloads for the chosen design; until then it still shows the whole shop's entries.
+    const actions = () => lead.page.locator('[data-testid="activity"] li').evaluateAll(els => els.map(e => e.getAttribute('data-action')))
+    await expect.poll(actions, { timeout: 15_000 }).toEqual(['share.withdrawn', 'share.download', 'share.created', 'design.created'])
     await lead.page.screenshot({ path: `${shots}/activity-page.png`, fullPage: true })
     await lead.context.close()
   })
