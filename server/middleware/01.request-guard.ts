@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import { bodyRule } from '../utils/request-limits'
+import { bodyRule, readBodyWithin } from '../utils/request-limits'
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS'])
 
@@ -33,28 +33,6 @@ function checkSameOrigin(event: H3Event) {
     const own = getRequestHost(event, { xForwardedHost: trustProxy() })
     if (host !== own) refuse(403, 'Forbidden', 'Requests from other sites are refused; use Rootplate itself', 'cross-site')
   }
-}
-
-/** Reads the body stream, stopping at the limit, so a huge body never sits in memory. */
-function readLimited(event: H3Event, limit: number): Promise<Buffer> {
-  const req = event.node.req
-  return new Promise((resolve, reject) => {
-    const chunks: Buffer[] = []
-    let size = 0
-    const onData = (chunk: Buffer) => {
-      size += chunk.length
-      if (size > limit) {
-        req.off('data', onData)
-        req.resume()
-        reject(tooLarge(limit))
-        return
-      }
-      chunks.push(chunk)
-    }
-    req.on('data', onData)
-    req.once('end', () => resolve(Buffer.concat(chunks)))
-    req.once('error', reject)
-  })
 }
 
 function tooLarge(limit: number) {
@@ -98,6 +76,6 @@ export default defineEventHandler(async (event) => {
   // reading it here as well would leave that reader waiting on a stream already ended.
   if (rule.multipart && type === 'multipart/form-data') return
   // Read once, here, within the limit; h3's body readers take it from _requestBody.
-  const body = await readLimited(event, rule.limit)
+  const body = await readBodyWithin(event, rule.limit, () => tooLarge(rule.limit))
   ;(event as unknown as { _requestBody?: Buffer })._requestBody = body
 })

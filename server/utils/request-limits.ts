@@ -1,3 +1,5 @@
+import { createError, type H3Event } from 'h3'
+
 /** Body limits in bytes, by route, checked before anything is parsed. */
 export const BODY_LIMITS = {
   /** Sign-in, sign-out, invitations, password forms. */
@@ -22,4 +24,43 @@ export function bodyRule(pathname: string): RouteBodyRule {
   if (pathname === '/api/me/preferences') return { limit: BODY_LIMITS.preferences, multipart: false }
   if (pathname.startsWith('/api/designs')) return { limit: BODY_LIMITS.design, multipart: false }
   return { limit: BODY_LIMITS.other, multipart: false }
+}
+
+/**
+ * Reads a request body, stopping at `limit` bytes: a larger body is refused
+ * with `tooLarge()` as soon as it passes the limit, never buffered whole. A
+ * body the request guard already read is taken from there; a sender that
+ * goes away mid-body ends the wait with a 400.
+ */
+export function readBodyWithin(event: H3Event, limit: number, tooLarge: () => Error): Promise<Buffer> {
+  const earlier = (event as unknown as { _requestBody?: unknown })._requestBody
+  if (Buffer.isBuffer(earlier)) {
+    return earlier.length > limit ? Promise.reject(tooLarge()) : Promise.resolve(earlier)
+  }
+  const req = event.node.req
+  return new Promise<Buffer>((resolve, reject) => {
+    const chunks: Buffer[] = []
+    let size = 0
+    let ended = false
+    const onData = (chunk: Buffer) => {
+      size += chunk.length
+      if (size > limit) {
+        req.off('data', onData)
+        // Drain the rest unread so the connection can carry the 413 answer.
+        req.resume()
+        reject(tooLarge())
+        return
+      }
+      chunks.push(chunk)
+    }
+    req.on('data', onData)
+    req.once('end', () => {
+      ended = true
+      resolve(Buffer.concat(chunks))
+    })
+    req.once('error', reject)
+    req.once('close', () => {
+      if (!ended) reject(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The request body was cut off' }))
+    })
+  })
 }

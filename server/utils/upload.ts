@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
 import { fileTypeFromBuffer } from 'file-type'
+import { readBodyWithin } from './request-limits'
 
 /** The largest file a shop may upload. */
 export const UPLOAD_LIMIT = 15 * 1024 * 1024
@@ -20,46 +21,11 @@ function tooLarge(): Error {
   return createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: `Files may be at most ${UPLOAD_LIMIT / 1024 / 1024} MB`, data: { fields: { file: `Files may be at most ${UPLOAD_LIMIT / 1024 / 1024} MB` } } })
 }
 
-/**
- * Reads the request body, stopping at the limit: a body announced or found
- * larger is refused with 413 as soon as it passes the limit, never buffered whole.
- */
+/** The request body within the limit; a body announced larger is refused before any of it is read. */
 async function readLimited(event: H3Event, limit: number): Promise<Buffer> {
   const announced = Number(getRequestHeader(event, 'content-length') ?? 'NaN')
   if (Number.isFinite(announced) && announced > limit) throw tooLarge()
-  // Already read by the request guard (a body that was not multipart): take it from there.
-  const earlier = (event as unknown as { _requestBody?: unknown })._requestBody
-  if (Buffer.isBuffer(earlier)) {
-    if (earlier.length > limit) throw tooLarge()
-    return earlier
-  }
-  const req = event.node.req
-  const chunks: Buffer[] = []
-  let total = 0
-  return new Promise<Buffer>((resolve, reject) => {
-    const onData = (chunk: Buffer) => {
-      total += chunk.length
-      if (total > limit) {
-        req.off('data', onData)
-        // Drain the rest unread so the connection can carry the 413 answer.
-        req.resume()
-        reject(tooLarge())
-        return
-      }
-      chunks.push(chunk)
-    }
-    req.on('data', onData)
-    let ended = false
-    req.once('end', () => {
-      ended = true
-      resolve(Buffer.concat(chunks))
-    })
-    req.once('error', reject)
-    // A sender that goes away mid-upload: give up rather than wait for an end that never comes.
-    req.once('close', () => {
-      if (!ended) reject(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The upload was interrupted' }))
-    })
-  })
+  return readBodyWithin(event, limit, tooLarge)
 }
 
 /**
