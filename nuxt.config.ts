@@ -76,6 +76,15 @@ export default defineNuxtConfig({
     sri: true,
     nonce: true,
   },
+  hooks: {
+    // The session routes of nuxt-auth-utils read h3's sealed session (and
+    // make one for every anonymous request); ours in server/api/_auth/ read
+    // the plain token cookie. The module stays for useUserSession() and
+    // password hashing.
+    'nitro:config'(config) {
+      config.handlers = (config.handlers ?? []).filter(h => h.route !== '/api/_auth/session')
+    },
+  },
   nitro: {
     externals: { external: ['paper'] },
     // The template font travels inside the server build (read with useStorage('assets:fonts')).

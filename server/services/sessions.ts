@@ -1,6 +1,6 @@
-import { and, eq, gt, ne, sql } from 'drizzle-orm'
+import { and, eq, ne, sql } from 'drizzle-orm'
 import type { Database } from '../utils/db'
-import { memberships, sessions, shops, users } from '../database/schema'
+import { sessions } from '../database/schema'
 import type { ShopRole } from '../../shared/utils/permissions'
 import { hashToken, newToken } from './tokens'
 
@@ -56,30 +56,27 @@ const TOUCH_AFTER_MS = 60_000
  */
 export async function findSessionMember(db: Database, token: string): Promise<SessionMember | null> {
   const id = hashToken(token)
-  const [row] = await db.select({
-    sessionId: sessions.id,
-    lastSeenAt: sessions.lastSeenAt,
-    userId: users.id,
-    email: users.email,
-    name: users.name,
-    shopId: shops.id,
-    shopName: shops.name,
-    role: memberships.role,
-  }).from(sessions)
-    .innerJoin(memberships, and(eq(memberships.userId, sessions.userId), eq(memberships.shopId, sessions.shopId)))
-    .innerJoin(users, eq(users.id, sessions.userId))
-    .innerJoin(shops, eq(shops.id, sessions.shopId))
-    .where(and(
-      eq(sessions.id, id),
-      gt(sessions.expiresAt, sql`now()`),
-      sql`${sessions.lastSeenAt} + make_interval(mins => ${sessions.idleTimeoutMinutes}) > now()`,
-    ))
+  // A tagged-template query of postgres.js is a named prepared statement on
+  // each pooled connection: parsed and planned once, not on every request, and
+  // without the query builder's per-call work (this runs on every API request).
+  // The idle touch happens in the same statement, only when a minute has passed.
+  const [row] = await db.$client<{ session_id: string; user_id: string; email: string; name: string; shop_id: string; shop_name: string; role: ShopRole }[]>`
+    with live as (
+      select s.id, s.user_id, s.shop_id, s.last_seen_at from sessions s
+      where s.id = ${id}
+        and s.expires_at > now()
+        and s.last_seen_at + make_interval(mins => s.idle_timeout_minutes) > now()
+    ), touched as (
+      update sessions set last_seen_at = now()
+      where id = (select id from live where last_seen_at < now() - make_interval(secs => ${TOUCH_AFTER_MS / 1000}::int))
+    )
+    select live.id as session_id, u.id as user_id, u.email, u.name, sh.id as shop_id, sh.name as shop_name, m.role
+    from live
+    join memberships m on m.user_id = live.user_id and m.shop_id = live.shop_id
+    join users u on u.id = live.user_id
+    join shops sh on sh.id = live.shop_id`
   if (!row) return null
-  if (Date.now() - row.lastSeenAt.getTime() > TOUCH_AFTER_MS) {
-    await db.update(sessions).set({ lastSeenAt: sql`now()` }).where(eq(sessions.id, id))
-  }
-  const { lastSeenAt: _seen, ...member } = row
-  return member
+  return { sessionId: row.session_id, userId: row.user_id, email: row.email, name: row.name, shopId: row.shop_id, shopName: row.shop_name, role: row.role }
 }
 
 export async function endSession(db: Database, token: string): Promise<void> {

@@ -6,11 +6,10 @@ declare module '#auth-utils' {
     email: string
     name: string
   }
-  // The sealed cookie holds only `sid`, the server-side session's token. The
-  // other fields are filled from the database when the client fetches its
-  // session (server/plugins/session-fetch.ts); they are never stored in the cookie.
+  // The cookie holds only the server-side session's token; these fields are
+  // read from the database when the client fetches its session
+  // (server/api/_auth/session.get.ts).
   interface UserSession {
-    sid?: string
     shopId?: string
     shopName?: string
     role?: ShopRole

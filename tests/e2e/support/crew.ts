@@ -1,25 +1,21 @@
-import { createHash, webcrypto } from 'node:crypto'
+import { createHash } from 'node:crypto'
 import { inject } from 'vitest'
-import { defaults, unseal } from 'iron-webcrypto'
 import { createDatabase } from '../../../server/utils/db'
 import { memberships, shops, users } from '../../../server/database/schema'
 import { hasher } from '../../../scripts/seed'
 import { api, freshAddress } from './api'
 
-export const sessionPassword = () => process.env.NUXT_SESSION_PASSWORD ?? 'test-session-password-of-at-least-32-chars'
 
-/** What the sealed session cookie holds, opened with iron (the sealing h3 uses) and the test's own copy of the secret. */
-export async function cookieContents(cookie: string): Promise<Record<string, unknown>> {
+/** The value of the session cookie in a Cookie header. */
+export function cookieValue(cookie: string): string {
   const value = cookie.split('; ').find(c => c.startsWith('nuxt-session='))?.slice('nuxt-session='.length)
   if (!value) throw new Error('no session cookie')
-  const unsealed = await unseal(webcrypto as unknown as Parameters<typeof unseal>[0], decodeURIComponent(value), sessionPassword(), defaults) as { data: Record<string, unknown> }
-  return unsealed.data
+  return decodeURIComponent(value)
 }
 
 /** The sessions-table id of a cookie's session: SHA-256 of its token (computed here with node:crypto). */
 export async function sessionRowId(cookie: string): Promise<string> {
-  const data = await cookieContents(cookie)
-  return createHash('sha256').update(String(data.sid)).digest('hex')
+  return createHash('sha256').update(cookieValue(cookie)).digest('hex')
 }
 
 let counter = 0
