@@ -95,15 +95,20 @@ export const activity = pgTable('activity', {
   index('activity_shop_time_idx').on(t.shopId, t.createdAt),
 ])
 
-// Failed sign-ins, kept so the limit holds across server instances.
-export const loginFailures = pgTable('login_failures', {
-  id: id(),
-  email: text('email').notNull(),
-  address: text('address').notNull(),
-  createdAt: createdAt(),
+
+// Sign-in limits: one row per bucket ('account:<e-mail>' or 'address:<ip>'),
+// claimed under a row lock before a password is checked, so parallel tries
+// cannot slip past the count (server/services/sign-in-limits.ts).
+export const signInLimits = pgTable('sign_in_limits', {
+  key: text('key').primaryKey(),
+  /** Failed (or still running) tries since the bucket was last quiet for the whole window. */
+  failures: integer('failures').notNull().default(0),
+  /** Past the free tries, the earliest moment the next try is checked. */
+  nextAt: timestamp('next_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 }, t => [
-  index('login_failures_email_time_idx').on(t.email, t.createdAt),
-  index('login_failures_address_time_idx').on(t.address, t.createdAt),
+  index('sign_in_limits_updated_idx').on(t.updatedAt),
+  check('sign_in_limits_failures_nonnegative', sql`${t.failures} >= 0`),
 ])
 
 // --- Uploads and the register of built units and patterns ---

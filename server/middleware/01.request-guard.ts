@@ -7,11 +7,8 @@ function refuse(statusCode: number, statusMessage: string, message: string, code
   throw createError({ statusCode, statusMessage, message, data: { code } })
 }
 
-// Not useRuntimeConfig(event): that copies the whole config and re-reads the environment on every request.
-let trusted: boolean | undefined
 function trustProxy(): boolean {
-  trusted ??= ['1', 'true'].includes(String(useRuntimeConfig().trustProxy))
-  return trusted
+  return trustedProxyHops() > 0
 }
 
 /**

@@ -14,7 +14,7 @@ function overHttps(event: H3Event, trustProxy: boolean): boolean {
  */
 export default defineNitroPlugin((nitroApp) => {
   // Read once: useRuntimeConfig(event) copies the whole config and re-reads the environment on every request.
-  const trustProxy = ['1', 'true'].includes(String(useRuntimeConfig().trustProxy))
+  const trustProxy = trustedProxyHops() > 0
   nitroApp.hooks.hook('beforeResponse', (event) => {
     if (!overHttps(event, trustProxy)) return
     const res = event.node.res

@@ -1,17 +1,14 @@
 import { and, asc, count, eq, gt, isNull, ne, sql } from 'drizzle-orm'
 import type { Database } from '../utils/db'
-import { loginFailures, memberships, passwordResets, sessions, shops, users } from '../database/schema'
+import { memberships, passwordResets, sessions, shops, signInLimits, users } from '../database/schema'
+import { bucketKeys, claimSignIn, releaseSignIn } from './sign-in-limits'
 import { hashToken, newToken } from './tokens'
 import type { ShopRole } from '../../shared/utils/permissions'
-
-/** Failed sign-ins allowed per account and per address within the window. */
-export const LOGIN_LIMIT = 10
-export const LOGIN_WINDOW_MINUTES = 15
 
 export type SignInResult =
   | { ok: true; user: { id: string; email: string; name: string }; shopId: string; shopName: string; role: ShopRole }
   | { ok: false; reason: 'invalid' | 'no-shop' }
-  | { ok: false; reason: 'limited'; retryAfterMinutes: number }
+  | { ok: false; reason: 'limited'; retryAfterSeconds: number }
 
 export interface Hasher {
   make(plain: string): Promise<string>
@@ -26,16 +23,13 @@ export async function signIn(
   db: Database,
   hasher: Hasher,
   input: { email: string; password: string; address: string },
+  wait: (ms: number) => Promise<void> = ms => new Promise(resolve => setTimeout(resolve, ms)),
 ): Promise<SignInResult> {
   const email = input.email.trim().toLowerCase()
-  const since = new Date(Date.now() - LOGIN_WINDOW_MINUTES * 60_000)
-  const [byEmail] = await db.select({ n: count() }).from(loginFailures)
-    .where(and(eq(loginFailures.email, email), gt(loginFailures.createdAt, since)))
-  const [byAddress] = await db.select({ n: count() }).from(loginFailures)
-    .where(and(eq(loginFailures.address, input.address), gt(loginFailures.createdAt, since)))
-  if ((byEmail?.n ?? 0) >= LOGIN_LIMIT || (byAddress?.n ?? 0) >= LOGIN_LIMIT) {
-    return { ok: false, reason: 'limited', retryAfterMinutes: LOGIN_WINDOW_MINUTES }
-  }
+  const claim = await claimSignIn(db, bucketKeys(email, input.address))
+  const retryAfterSeconds = (ms: number) => Math.max(1, Math.ceil(ms / 1000))
+  if (!claim.ok) return { ok: false, reason: 'limited', retryAfterSeconds: retryAfterSeconds(claim.retryAfterMs) }
+  if (claim.waitMs > 0) await wait(claim.waitMs)
 
   const user = await db.query.users.findFirst({ where: sql`lower(${users.email}) = ${email}` })
   let good = false
@@ -47,16 +41,17 @@ export async function signIn(
     await hasher.verify(await decoy, input.password)
   }
   if (!user || !good) {
-    await db.insert(loginFailures).values({ email, address: input.address })
+    // Past the free tries a wrong password says only "wait", so the count of plain refusals stays at the limit.
+    if (claim.overLimit) return { ok: false, reason: 'limited', retryAfterSeconds: retryAfterSeconds(claim.retryAfterMs) }
     return { ok: false, reason: 'invalid' }
   }
+  await releaseSignIn(db, email, input.address)
 
   const [membership] = await db.select({ shopId: memberships.shopId, role: memberships.role, shopName: shops.name })
     .from(memberships).innerJoin(shops, eq(shops.id, memberships.shopId))
     .where(eq(memberships.userId, user.id)).orderBy(asc(memberships.createdAt)).limit(1)
   if (!membership) return { ok: false, reason: 'no-shop' }
 
-  await db.delete(loginFailures).where(eq(loginFailures.email, email))
   return {
     ok: true,
     user: { id: user.id, email: user.email, name: user.name },
@@ -101,7 +96,8 @@ export async function resetPassword(db: Database, hasher: Hasher, token: string,
     await tx.update(users).set({ passwordHash: await hasher.make(password) }).where(eq(users.id, row.userId))
     await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, row.userId), isNull(passwordResets.usedAt)))
     const ended = await tx.delete(sessions).where(eq(sessions.userId, row.userId)).returning({ id: sessions.id })
-    await tx.delete(loginFailures).where(sql`${loginFailures.email} = (select lower(email) from users where id = ${row.userId})`)
+    const [owner] = await tx.select({ email: users.email }).from(users).where(eq(users.id, row.userId))
+    if (owner) await tx.delete(signInLimits).where(eq(signInLimits.key, bucketKeys(owner.email.toLowerCase(), '')[0]!))
     return { ok: true, userId: row.userId, endedSessions: ended.length } as const
   })
 }

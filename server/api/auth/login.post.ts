@@ -10,14 +10,14 @@ const hasher = { make: hashPassword, verify: verifyPassword }
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await readBodyWith(event, loginSchema)
-  // X-Forwarded-For is believed only behind a proxy the operator names (NUXT_TRUST_PROXY=1).
-  const trustProxy = ['1', 'true'].includes(String(useRuntimeConfig(event).trustProxy))
-  const address = getRequestIP(event, { xForwardedFor: trustProxy }) ?? 'unknown'
+  // X-Forwarded-For is believed only as far as the proxies the operator names (NUXT_TRUST_PROXY).
+  const address = clientAddress(event)
   const result = await signIn(useDb(), hasher, { email, password, address })
   if (!result.ok) {
     if (result.reason === 'limited') {
-      setResponseHeader(event, 'Retry-After', result.retryAfterMinutes * 60)
-      throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: `Too many failed sign-ins. Wait ${result.retryAfterMinutes} minutes, then try again.` })
+      setResponseHeader(event, 'Retry-After', result.retryAfterSeconds)
+      const wait = result.retryAfterSeconds === 1 ? 'a second' : `${result.retryAfterSeconds} seconds`
+      throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: `Too many failed sign-ins. Wait ${wait}, then try again.`, data: { retryAfterSeconds: result.retryAfterSeconds } })
     }
     if (result.reason === 'no-shop') {
       throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'This account is not a member of any shop yet' })
