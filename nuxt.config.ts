@@ -82,7 +82,7 @@ export default defineNuxtConfig({
     // the plain token cookie. The module stays for useUserSession() and
     // password hashing.
     'nitro:config'(config) {
-      config.handlers = (config.handlers ?? []).filter(h => h.route !== '/api/_auth/session')
+      config.handlers = (config.handlers ?? []).filter(h => h?.route !== '/api/_auth/session')
     },
   },
   nitro: {
