@@ -1,5 +1,7 @@
 // Rootplate: Nuxt 4 with the repository root as the source folder.
+import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { bundleExportWorker } from './scripts/export-worker-build'
 
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
@@ -75,6 +77,15 @@ export default defineNuxtConfig({
     removeLoggers: false,
     sri: true,
     nonce: true,
+  },
+  hooks: {
+    // Export files are written on worker threads (server/services/export-pool.ts):
+    // their entry is bundled beside the server's once Nitro has built it. In
+    // `nuxt dev` there is none and the files are made in the server's thread.
+    'nitro:init'(nitro) {
+      if (nitro.options.dev) return
+      nitro.hooks.hook('compiled', () => bundleExportWorker(join(nitro.options.output.serverDir, 'export-worker.mjs')))
+    },
   },
   nitro: {
     externals: { external: ['paper'] },
