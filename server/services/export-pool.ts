@@ -18,9 +18,9 @@ export class ExportJobError extends Error {
 interface Task { job: ExportJob; resolve: (body: Uint8Array | string) => void; reject: (err: unknown) => void }
 interface Slot { worker: Worker; task: Task | null; id: number }
 
-/** Workers for a machine of `cores` cores: one each, leaving the event loop its share on a one-core machine. */
+/** Workers for a machine of `cores` cores: one core is left to the event loop (and PostgreSQL), at least one worker. */
 export function defaultPoolSize(cores = availableParallelism()): number {
-  return Math.max(1, Math.min(cores, 8))
+  return Math.max(1, Math.min(cores - 1, 8))
 }
 
 export class ExportPool {

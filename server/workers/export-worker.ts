@@ -1,6 +1,8 @@
 // The export worker thread: takes a job, writes the file, posts it back.
 // Bundled on its own by esbuild into .output/server/export-worker.mjs (see
 // nuxt.config.ts), so it must not use Nitro's auto-imports.
+import { readlinkSync } from 'node:fs'
+import { setPriority } from 'node:os'
 import { parentPort } from 'node:worker_threads'
 import { runExportJob, type ExportJob } from '../services/export-jobs'
 
@@ -11,6 +13,15 @@ export type WorkerReply =
 
 if (!parentPort) throw new Error('export-worker must run as a worker thread')
 const port = parentPort
+
+// Linux schedules threads one by one: this worker thread (not the server's
+// event loop) is niced, so short requests still get a core while files are
+// written. /proc/thread-self names the calling thread; elsewhere nothing changes.
+try {
+  const tid = Number(readlinkSync('/proc/thread-self').split('/').pop())
+  if (Number.isInteger(tid) && tid > 0) setPriority(tid, 10)
+}
+catch { /* not Linux, or not allowed: the worker runs at normal priority */ }
 
 port.on('message', async ({ id, job }: WorkerRequest) => {
   try {
