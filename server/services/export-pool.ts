@@ -16,7 +16,10 @@ export class ExportJobError extends Error {
 }
 
 interface Task { job: ExportJob; resolve: (body: Uint8Array | string) => void; reject: (err: unknown) => void }
-interface Slot { worker: Worker; task: Task | null; id: number }
+interface Slot { worker: Worker; task: Task | null; id: number; timer?: ReturnType<typeof setTimeout>; timedOut?: boolean }
+
+/** The longest one file may take before its worker is stopped: far past the 200-sheet cap's few seconds. */
+export const EXPORT_JOB_TIMEOUT_MS = 120_000
 
 /** Workers for a machine of `cores` cores: one core is left to the event loop (and PostgreSQL), at least one worker. */
 export function defaultPoolSize(cores = availableParallelism()): number {
@@ -29,7 +32,7 @@ export class ExportPool {
   private nextId = 1
   private closed = false
 
-  constructor(readonly file: string, readonly size: number) {}
+  constructor(readonly file: string, readonly size: number, readonly timeoutMs = EXPORT_JOB_TIMEOUT_MS) {}
 
   /** Jobs waiting for a free worker. */
   get waiting(): number { return this.queue.length }
@@ -60,6 +63,12 @@ export class ExportPool {
       slot.id = this.nextId++
       const request: WorkerRequest = { id: slot.id, job: task.job }
       slot.worker.postMessage(request)
+      // A job that never ends would hold its worker for ever: stop the thread, fail the job, start another.
+      slot.timer = setTimeout(() => {
+        slot.timedOut = true
+        void slot.worker.terminate()
+      }, this.timeoutMs)
+      slot.timer.unref()
     }
   }
 
@@ -71,6 +80,7 @@ export class ExportPool {
     worker.on('message', (reply: WorkerReply) => {
       const task = slot.task
       if (!task || reply.id !== slot.id) return
+      clearTimeout(slot.timer)
       slot.task = null
       if (reply.ok) task.resolve(reply.body)
       else task.reject(new ExportJobError(reply.error))
@@ -80,7 +90,9 @@ export class ExportPool {
       this.slots = this.slots.filter(s => s !== slot)
       const task = slot.task
       slot.task = null
-      task?.reject(err instanceof Error ? err : new Error(`The export worker stopped (${String(err)})`))
+      clearTimeout(slot.timer)
+      if (slot.timedOut) task?.reject(new ExportJobError({ statusCode: 503, statusMessage: 'Service Unavailable', message: `This file took longer than ${Math.round(this.timeoutMs / 1000)} s to make and was stopped. Try fewer sheets (a larger paper or a roll).` }))
+      else task?.reject(err instanceof Error ? err : new Error(`The export worker stopped (${String(err)})`))
       if (!this.closed) this.pump()
     }
     worker.on('error', lost)

@@ -25,6 +25,16 @@ export class ExportsBusyError extends Error {
 }
 
 /** `madeBy` says where a file made now was written: a pool worker or the server's own thread. */
+/** Files waiting for a worker, across all members, past which new ones are turned away for a moment. */
+export const EXPORT_QUEUE_MAX = 32
+
+/** The pool's queue is full (many members at once): answered 503 with Retry-After. */
+export class ExportsQueueFullError extends Error {
+  constructor(readonly retryAfter: number) {
+    super('The server is busy making files for others. Try again in a few seconds.')
+  }
+}
+
 export interface ExportResult { body: Uint8Array | string; cache: 'hit' | 'miss'; madeBy?: 'worker' | 'thread' }
 
 export interface ExportRunnerOptions {
@@ -32,6 +42,8 @@ export interface ExportRunnerOptions {
   buildStamp: string
   cacheBytes?: number
   perOwner?: number
+  /** Jobs waiting for a worker past which new ones are refused (default EXPORT_QUEUE_MAX). */
+  queueMax?: number
   /** Writes the file when there is no pool (tests may count calls through it). */
   inThread?: (job: ExportJob) => Promise<Uint8Array | string>
 }
@@ -60,6 +72,7 @@ export class ExportRunner {
     if (cached !== undefined) return { body: cached, cache: 'hit' }
     const count = this.running.get(owner) ?? 0
     if (count >= this.perOwner) throw new ExportsBusyError(EXPORT_RETRY_AFTER)
+    if (!this.inFlight.has(key) && (this.options.pool?.waiting ?? 0) >= (this.options.queueMax ?? EXPORT_QUEUE_MAX)) throw new ExportsQueueFullError(EXPORT_RETRY_AFTER)
     this.running.set(owner, count + 1)
     try {
       let making = this.inFlight.get(key)

@@ -6,7 +6,7 @@ import { plateFromRevision, type RevisionForExport } from '../services/exports'
 import type { BuildSheetRevision } from '../services/build-sheet'
 import type { ExportJob } from '../services/export-jobs'
 import { ExportJobError, ExportPool, defaultPoolSize } from '../services/export-pool'
-import { ExportRunner, ExportsBusyError, findWorkerFile } from '../services/export-runner'
+import { ExportRunner, ExportsBusyError, ExportsQueueFullError, findWorkerFile } from '../services/export-runner'
 import type { Plate } from '../../geometry'
 import type { Member } from './auth'
 
@@ -72,8 +72,12 @@ export async function sendExport(event: H3Event, job: ExportJob, owner: string, 
   }
   catch (err: unknown) {
     if (err instanceof ExportsBusyError) {
-      setResponseHeader(event, 'retry-after', String(err.retryAfter))
+      setResponseHeader(event, 'retry-after', err.retryAfter)
       throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: err.message, data: { retryAfter: err.retryAfter } })
+    }
+    if (err instanceof ExportsQueueFullError) {
+      setResponseHeader(event, 'retry-after', err.retryAfter)
+      throw createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: err.message, data: { retryAfter: err.retryAfter } })
     }
     if (err instanceof ExportJobError) throw createError(err.failure)
     throw err

@@ -2,7 +2,7 @@
 // without HTTP: the cache by revision and query, the per-owner limit, joined
 // identical jobs, and real jobs on a real worker bundled the way the build
 // bundles it. Files are read back with dxf-parser; sizes are hand values.
-import { mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import DxfParser from 'dxf-parser'
@@ -10,11 +10,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ByteLru, exportKey } from '../../../server/services/export-cache'
 import type { ExportJob } from '../../../server/services/export-jobs'
 import { ExportJobError, ExportPool } from '../../../server/services/export-pool'
-import { ExportRunner, ExportsBusyError, findWorkerFile } from '../../../server/services/export-runner'
+import { ExportRunner, ExportsBusyError, ExportsQueueFullError, findWorkerFile } from '../../../server/services/export-runner'
 import { bundleExportWorker } from '../../../scripts/export-worker-build'
 
 const revision = { number: 3, params: { tubeDiameter: 304.8 }, designName: 'Runner test elm', sizeLabel: null, createdAt: new Date('2026-03-01T12:00:00Z') }
-const dxfJob = (units: 'in' | 'mm'): ExportJob => ({ kind: 'cut-dxf', revision, query: { units, reference: true, mirror: false, layer: 'all' } })
+const dxfJob = (units: 'in' | 'mm'): Extract<ExportJob, { kind: 'cut-dxf' }> => ({ kind: 'cut-dxf', revision, query: { units, reference: true, mirror: false, layer: 'all' } })
 
 /** A stand-in writer whose jobs finish only when the test says so. */
 function heldWriter() {
@@ -136,5 +136,49 @@ describe('ExportPool with the bundled worker', () => {
     expect((broken as ExportJobError).failure.statusCode).toBe(422)
     // The pool still works after refusals.
     expect(typeof await pool.run(dxfJob('in'))).toBe('string')
+  })
+})
+
+describe('ExportPool when a worker misbehaves', () => {
+  let dir = ''
+  beforeAll(() => {
+    dir = mkdtempSync(join(tmpdir(), 'rootplate-bad-worker-'))
+    // Stand-in workers: one never answers, one dies on its first job.
+    writeFileSync(join(dir, 'silent.mjs'), `import { parentPort } from 'node:worker_threads'\nparentPort.on('message', () => {})\n`)
+    writeFileSync(join(dir, 'dies.mjs'), `import { parentPort } from 'node:worker_threads'\nparentPort.on('message', () => process.exit(3))\n`)
+  })
+  afterAll(() => rmSync(dir, { recursive: true, force: true }))
+
+  it('stops a job past its time limit with a 503, and the next job gets a fresh worker', async () => {
+    const pool = new ExportPool(join(dir, 'silent.mjs'), 1, 300)
+    const first = await pool.run(dxfJob('in')).catch((e: unknown) => e)
+    expect(first).toBeInstanceOf(ExportJobError)
+    expect((first as ExportJobError).failure.statusCode).toBe(503)
+    const second = await pool.run(dxfJob('mm')).catch((e: unknown) => e)
+    expect((second as ExportJobError).failure.statusCode).toBe(503)
+    await pool.close()
+  })
+
+  it('fails only the job whose worker died', async () => {
+    const pool = new ExportPool(join(dir, 'dies.mjs'), 1, 5_000)
+    const err = await pool.run(dxfJob('in')).catch((e: unknown) => e)
+    expect(String(err)).toMatch(/exited with code 3/)
+    expect(pool.running).toBe(0)
+    await pool.close()
+  })
+
+  it('turns new jobs away while the queue is full, but still joins a file already being made', async () => {
+    const pool = new ExportPool(join(dir, 'silent.mjs'), 1, 60_000)
+    const runner = new ExportRunner({ pool, buildStamp: 'b', queueMax: 1 })
+    const busy = runner.run(dxfJob('in'), 'member:a').catch(() => undefined)
+    const waiting = runner.run(dxfJob('mm'), 'member:b').catch(() => undefined)
+    expect(pool.waiting).toBe(1)
+    await expect(runner.run({ ...dxfJob('in'), query: { ...dxfJob('in').query, reference: false } }, 'member:c')).rejects.toBeInstanceOf(ExportsQueueFullError)
+    // The same file as the one being made waits for it instead.
+    const joined = runner.run(dxfJob('in'), 'member:d').catch((e: unknown) => e)
+    await pool.close()
+    await Promise.all([busy, waiting])
+    expect(await joined).not.toBeInstanceOf(ExportsQueueFullError)
+    expect(runner.builds).toBe(2)
   })
 })
