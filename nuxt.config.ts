@@ -1,5 +1,7 @@
 // Rootplate: Nuxt 4 with the repository root as the source folder.
+import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { bundleExportWorker } from './scripts/export-worker-build'
 
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
@@ -83,6 +85,13 @@ export default defineNuxtConfig({
     // password hashing.
     'nitro:config'(config) {
       config.handlers = (config.handlers ?? []).filter(h => h?.route !== '/api/_auth/session')
+    },
+    // Export files are written on worker threads (server/services/export-pool.ts):
+    // their entry is bundled beside the server's once Nitro has built it. In
+    // `nuxt dev` there is none and the files are made in the server's thread.
+    'nitro:init'(nitro) {
+      if (nitro.options.dev) return
+      nitro.hooks.hook('compiled', () => bundleExportWorker(join(nitro.options.output.serverDir, 'export-worker.mjs')))
     },
   },
   nitro: {

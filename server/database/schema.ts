@@ -286,3 +286,20 @@ export const shares = pgTable('shares', {
 export type Session = typeof sessions.$inferSelect
 export type Invitation = typeof invitations.$inferSelect
 export type Share = typeof shares.$inferSelect
+
+// Notes any member of the shop leaves on one revision (a builder to the
+// designer, a lead to the crew). The revision itself never changes; its
+// comments are rows of their own. shop_id keeps every query scoped by shop.
+export const revisionComments = pgTable('revision_comments', {
+  id: id(),
+  shopId: uuid('shop_id').notNull().references(() => shops.id, { onDelete: 'cascade' }),
+  revisionId: uuid('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+  authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+  body: text('body').notNull(),
+  createdAt: createdAt(),
+}, t => [
+  index('revision_comments_revision_time_idx').on(t.revisionId, t.createdAt),
+  index('revision_comments_shop_idx').on(t.shopId),
+  check('revision_comments_body_length', sql`char_length(${t.body}) between 1 and 2000`),
+])
+export type RevisionComment = typeof revisionComments.$inferSelect

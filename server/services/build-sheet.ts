@@ -1,30 +1,31 @@
 import { z } from 'zod'
 import { renderBuildSheetPdf, exportFileName, type FontBytes } from '../../geometry/export'
-import type { Database } from '../utils/db'
-import { invalid, notFound } from '../utils/validation'
-import { getRevision } from './designs'
-import { plateFromRevision } from './exports'
+import type { Plate } from '../../geometry'
+import type { RevisionForExport } from './exports'
 
 export const buildSheetQuerySchema = z.object({
   units: z.enum(['in', 'mm'], { error: 'Units must be in or mm' }).default('in'),
   paper: z.enum(['letter', 'a4'], { error: 'Paper must be letter or a4' }).optional(),
 })
 
-export interface BuildSheetFile { pdf: Uint8Array; fileName: string }
+/** The revision fields the build sheet reads: the export fields and who saved it. */
+export interface BuildSheetRevision extends RevisionForExport { author: string | null }
 
-/** The build sheet of one revision of the member's shop, rebuilt from its stored params. */
-export async function buildSheet(db: Database, shopId: string, revisionId: string, q: z.output<typeof buildSheetQuerySchema>, font: FontBytes): Promise<BuildSheetFile> {
-  const revision = await getRevision(db, shopId, revisionId)
-  if (!revision) throw notFound('That revision')
-  const built = plateFromRevision({ ...revision, params: revision.params })
-  if (!built.ok) invalid(built.fields, 'This revision was saved with params that no longer pass the checks; open it in the editor and save it again')
-  const meta = {
+function sheetMeta(revision: BuildSheetRevision) {
+  return {
     designName: revision.designName,
     sizeLabel: revision.sizeLabel ?? undefined,
     revision: revision.number,
     date: revision.createdAt.toISOString().slice(0, 10),
-    author: revision.author.name,
+    author: revision.author,
   }
-  const pdf = await renderBuildSheetPdf(built.plate, { units: q.units, paper: q.paper, meta, font })
-  return { pdf, fileName: exportFileName(meta, 'pdf').replace(/\.pdf$/, '-build-sheet.pdf') }
+}
+
+/** The build sheet of a revision's rebuilt plate (run by the export pool: no database here). */
+export function buildSheetPdf(plate: Plate, revision: BuildSheetRevision, q: z.output<typeof buildSheetQuerySchema>, font: FontBytes): Promise<Uint8Array> {
+  return renderBuildSheetPdf(plate, { units: q.units, paper: q.paper, meta: sheetMeta(revision), font })
+}
+
+export function buildSheetFileName(revision: BuildSheetRevision): string {
+  return exportFileName(sheetMeta(revision), 'pdf').replace(/\.pdf$/, '-build-sheet.pdf')
 }

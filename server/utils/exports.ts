@@ -1,14 +1,25 @@
+import { fileURLToPath } from 'node:url'
+import { dirname } from 'node:path'
 import type { H3Event } from 'h3'
 import { getRevision } from '../services/designs'
 import { plateFromRevision, type RevisionForExport } from '../services/exports'
+import type { BuildSheetRevision } from '../services/build-sheet'
+import type { ExportJob } from '../services/export-jobs'
+import { ExportJobError, ExportPool, defaultPoolSize } from '../services/export-pool'
+import { ExportRunner, ExportsBusyError, ExportsQueueFullError, findWorkerFile } from '../services/export-runner'
 import type { Plate } from '../../geometry'
 import type { Member } from './auth'
 
-/** The revision named in the route (of the member's shop) and its rebuilt plate, or the right error. */
-export async function revisionPlate(event: H3Event, member: Member): Promise<{ revision: RevisionForExport; plate: Plate }> {
+/** The revision named in the route (of the member's shop), as the export jobs take it; 404 otherwise. */
+export async function exportRevision(event: H3Event, member: Member): Promise<BuildSheetRevision> {
   const revision = await getRevision(useDb(), member.shopId, routeId(event))
   if (!revision) throw notFound('That revision')
-  const forExport: RevisionForExport = { number: revision.number, params: revision.params, designName: revision.designName, sizeLabel: revision.sizeLabel, createdAt: revision.createdAt }
+  return { number: revision.number, params: revision.params, designName: revision.designName, sizeLabel: revision.sizeLabel, createdAt: revision.createdAt, author: revision.author.name }
+}
+
+/** The revision named in the route (of the member's shop) and its rebuilt plate, or the right error. */
+export async function revisionPlate(event: H3Event, member: Member): Promise<{ revision: RevisionForExport; plate: Plate }> {
+  const { author: _author, ...forExport } = await exportRevision(event, member)
   const built = plateFromRevision(forExport)
   if (!built.ok) invalid(built.fields, 'This revision was saved with params that no longer pass the checks; open it in the editor and save it again')
   return { revision: forExport, plate: built.plate }
@@ -28,4 +39,47 @@ export function sendFile(event: H3Event, body: Uint8Array | string, type: string
     'cache-control': 'no-store',
   })
   return body
+}
+
+let runner: ExportRunner | null = null
+
+/**
+ * The server's one export runner. `EXPORT_WORKERS` sets the pool's size
+ * (default: one worker per core); `EXPORT_WORKERS=0`, or no bundled worker
+ * (`nuxt dev`), makes the files in the server's own thread.
+ */
+export function exportRunner(): ExportRunner {
+  if (runner) return runner
+  const wanted = process.env.EXPORT_WORKERS === undefined || process.env.EXPORT_WORKERS === '' ? defaultPoolSize() : Number(process.env.EXPORT_WORKERS)
+  const file = process.env.EXPORT_WORKER_FILE || findWorkerFile(dirname(fileURLToPath(import.meta.url)))
+  const size = Number.isInteger(wanted) && wanted > 0 ? wanted : 0
+  const pool = file && size > 0 ? new ExportPool(file, size) : null
+  runner = new ExportRunner({ pool, buildStamp: useRuntimeConfig().app.buildId || 'dev' })
+  return runner
+}
+
+/**
+ * Makes (or takes from the cache) one export file and sends it. `owner` names
+ * who waits for it (`member:<id>`, `share:<id>`): each may have only a few in
+ * the making at once. `X-Rootplate-Cache` says whether the file was made now.
+ */
+export async function sendExport(event: H3Event, job: ExportJob, owner: string, type: string, filename: string) {
+  try {
+    const { body, cache, madeBy } = await exportRunner().run(job, owner)
+    setResponseHeader(event, 'x-rootplate-cache', cache)
+    if (madeBy) setResponseHeader(event, 'x-rootplate-made-by', madeBy)
+    return sendFile(event, body, type, filename)
+  }
+  catch (err: unknown) {
+    if (err instanceof ExportsBusyError) {
+      setResponseHeader(event, 'retry-after', err.retryAfter)
+      throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: err.message, data: { retryAfter: err.retryAfter } })
+    }
+    if (err instanceof ExportsQueueFullError) {
+      setResponseHeader(event, 'retry-after', err.retryAfter)
+      throw createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: err.message, data: { retryAfter: err.retryAfter } })
+    }
+    if (err instanceof ExportJobError) throw createError(err.failure)
+    throw err
+  }
 }

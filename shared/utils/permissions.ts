@@ -4,7 +4,7 @@ export const roles = ['lead', 'designer', 'builder', 'viewer'] as const
 export type ShopRole = (typeof roles)[number]
 
 export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view' | 'design:share' | 'shop:activity'
-  | 'attachment:add' | 'unit:view' | 'unit:edit'
+  | 'attachment:add' | 'unit:view' | 'unit:edit' | 'revision:comment'
 
 const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'design:view': roles,
@@ -18,6 +18,8 @@ const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'unit:edit': ['lead', 'designer', 'builder'],
   'design:share': ['lead', 'designer'],
   'shop:activity': ['lead'],
+  // A note on a revision: anyone in the shop, builders and viewers included.
+  'revision:comment': roles,
 }
 
 export function can(role: ShopRole | undefined | null, action: ShopAction): boolean {

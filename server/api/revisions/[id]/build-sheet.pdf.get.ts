@@ -1,8 +1,8 @@
-import { buildSheet, buildSheetQuerySchema } from '../../../services/build-sheet'
+import { buildSheetFileName, buildSheetQuerySchema } from '../../../services/build-sheet'
 
 export default defineEventHandler(async (event) => {
   const member = await requireAction(event, 'design:view')
   const query = queryWith(event, buildSheetQuerySchema)
-  const sheet = await buildSheet(useDb(), member.shopId, routeId(event), query, await templateFont())
-  return sendFile(event, sheet.pdf, 'application/pdf', sheet.fileName)
+  const revision = await exportRevision(event, member)
+  return sendExport(event, { kind: 'build-sheet', revision, query, font: await templateFont() }, `member:${member.userId}`, 'application/pdf', buildSheetFileName(revision))
 })

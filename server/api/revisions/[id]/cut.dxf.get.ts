@@ -1,8 +1,8 @@
-import { fileName, cutDxf, cutQuerySchema } from '../../../services/exports'
+import { fileName, cutQuerySchema } from '../../../services/exports'
 
 export default defineEventHandler(async (event) => {
   const member = await requireAction(event, 'design:view')
   const query = queryWith(event, cutQuerySchema)
-  const { revision, plate } = await revisionPlate(event, member)
-  return sendFile(event, cutDxf(plate, query), 'application/dxf', fileName(revision, 'dxf', query.layer))
+  const revision = await exportRevision(event, member)
+  return sendExport(event, { kind: 'cut-dxf', revision, query }, `member:${member.userId}`, 'application/dxf', fileName(revision, 'dxf', query.layer))
 })

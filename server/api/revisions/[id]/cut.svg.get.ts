@@ -1,8 +1,8 @@
-import { fileName, cutSvg, cutQuerySchema } from '../../../services/exports'
+import { fileName, cutQuerySchema } from '../../../services/exports'
 
 export default defineEventHandler(async (event) => {
   const member = await requireAction(event, 'design:view')
   const query = queryWith(event, cutQuerySchema)
-  const { revision, plate } = await revisionPlate(event, member)
-  return sendFile(event, cutSvg(plate, query), 'image/svg+xml', fileName(revision, 'svg', query.layer))
+  const revision = await exportRevision(event, member)
+  return sendExport(event, { kind: 'cut-svg', revision, query }, `member:${member.userId}`, 'image/svg+xml', fileName(revision, 'svg', query.layer))
 })

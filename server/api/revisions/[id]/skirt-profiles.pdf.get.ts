@@ -1,9 +1,8 @@
-import { skirtProfilesFileName, skirtProfilesPdf, skirtProfilesQuerySchema } from '../../../services/skirt'
+import { skirtProfilesFileName, skirtProfilesQuerySchema } from '../../../services/skirt'
 
 export default defineEventHandler(async (event) => {
   const member = await requireAction(event, 'design:view')
   const query = queryWith(event, skirtProfilesQuerySchema)
-  const { revision, plate } = await revisionPlate(event, member)
-  const pdf = await skirtProfilesPdf(plate, revision, query, await templateFont())
-  return sendFile(event, pdf, 'application/pdf', skirtProfilesFileName(revision))
+  const revision = await exportRevision(event, member)
+  return sendExport(event, { kind: 'skirt-profiles', revision, query, font: await templateFont() }, `member:${member.userId}`, 'application/pdf', skirtProfilesFileName(revision))
 })

@@ -1,9 +1,8 @@
-import { fileName, tubeWrapPdf, tubeWrapQuerySchema } from '../../../services/exports'
+import { fileName, tubeWrapQuerySchema } from '../../../services/exports'
 
 export default defineEventHandler(async (event) => {
   const member = await requireAction(event, 'design:view')
   const query = queryWith(event, tubeWrapQuerySchema)
-  const { revision, plate } = await revisionPlate(event, member)
-  const pdf = await tubeWrapPdf(plate, revision, query, await templateFont())
-  return sendFile(event, pdf, 'application/pdf', fileName(revision, 'pdf').replace(/\.pdf$/, '-tube-wrap.pdf'))
+  const revision = await exportRevision(event, member)
+  return sendExport(event, { kind: 'tube-wrap', revision, query, font: await templateFont() }, `member:${member.userId}`, 'application/pdf', fileName(revision, 'pdf').replace(/\.pdf$/, '-tube-wrap.pdf'))
 })

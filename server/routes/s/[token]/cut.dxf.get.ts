@@ -1,12 +1,12 @@
-import { cutDxf, cutQuerySchema, fileName } from '../../../services/exports'
+import { cutQuerySchema, fileName } from '../../../services/exports'
 import { recordShareDownload } from '../../../services/shares'
 
 // The query is parsed by the export service's own schema and passed on whole,
 // so options it gains (such as the layer) work through share links too.
 export default defineEventHandler(event => shareDownload(event, async () => {
   const query = queryWith(event, cutQuerySchema)
-  const { share, plate } = await sharedRevision(event)
-  const body = cutDxf(plate, query)
+  const share = await sharedOnly(event)
+  const body = await sendExport(event, { kind: 'cut-dxf', revision: share.revision, query }, `share:${share.id}`, 'application/dxf', fileName(share.revision, 'dxf'))
   await recordShareDownload(useDb(), share, 'cut.dxf', query)
-  return sendFile(event, body, 'application/dxf', fileName(share.revision, 'dxf'))
+  return body
 }))

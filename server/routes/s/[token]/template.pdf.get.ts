@@ -1,10 +1,10 @@
-import { fileName, templatePdf, templateQuerySchema } from '../../../services/exports'
+import { fileName, templateQuerySchema } from '../../../services/exports'
 import { recordShareDownload } from '../../../services/shares'
 
 export default defineEventHandler(event => shareDownload(event, async () => {
   const query = queryWith(event, templateQuerySchema)
-  const { share, plate } = await sharedRevision(event)
-  const pdf = await templatePdf(plate, share.revision, query, await templateFont())
+  const share = await sharedOnly(event)
+  const body = await sendExport(event, { kind: 'template', revision: share.revision, query, font: await templateFont() }, `share:${share.id}`, 'application/pdf', fileName(share.revision, 'pdf'))
   await recordShareDownload(useDb(), share, 'template.pdf', query)
-  return sendFile(event, pdf, 'application/pdf', fileName(share.revision, 'pdf'))
+  return body
 }))
