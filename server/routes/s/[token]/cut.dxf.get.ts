@@ -6,7 +6,7 @@ import { recordShareDownload } from '../../../services/shares'
 export default defineEventHandler(event => shareDownload(event, async () => {
   const query = queryWith(event, cutQuerySchema)
   const { share, plate } = await sharedRevision(event)
-  const body = cutDxf(plate, query)
+  const body = cutDxf(plate, query, share.revision)
   await recordShareDownload(useDb(), share, 'cut.dxf', query)
   return sendFile(event, body, 'application/dxf', fileName(share.revision, 'dxf'))
 }))
