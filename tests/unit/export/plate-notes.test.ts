@@ -10,7 +10,7 @@ import DxfParser, { type IDxf } from 'dxf-parser'
 import polygonClipping from 'polygon-clipping'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { buildPlate, plateParamsSchema } from '../../../geometry/core'
-import { renderBuildSheetPdf, renderCutDxf, renderTemplatePdf, renderTubeWrapPdf, LAYER_NOTES } from '../../../geometry/export'
+import { renderBuildSheetPdf, renderCutDxf, renderCutSvg, renderTemplatePdf, renderTubeWrapPdf, LAYER_NOTES } from '../../../geometry/export'
 import { loadTemplateFontNode } from '../../../geometry/export/fonts-node'
 import { placeLabels } from '../../../geometry/export/tiled-pdf'
 import { tileContent, type TileContent } from '../../../geometry/export/tiling'
@@ -73,6 +73,14 @@ describe('the cut file notes layer (read back by dxf-parser)', () => {
     expect(text[0]).toMatch(/^SAVED WITH ERRORS \(\d+\)/)
     // 1-1/4 in overlap of the rabbets = 31.75 mm, to the half millimetre.
     expect(text.join(' ')).toContain('32 mm')
+  })
+
+  it('the SVG cut file carries the same notes as its description (read back by happy-dom as XML)', async () => {
+    const { Window } = await import('happy-dom')
+    const doc = new new Window().DOMParser().parseFromString(renderCutSvg(bad, { units: 'in' }), 'image/svg+xml')
+    const desc = doc.querySelector('desc')?.textContent ?? ''
+    expect(desc).toMatch(/^SAVED WITH ERRORS/)
+    expect(desc).toContain('Cut 2 pieces per plate from 0.703 in plywood')
   })
 
   it('counts the bottom layers of a three-layer plate: 2 pieces, no rabbets', () => {
