@@ -309,7 +309,8 @@ function setPath(target: Record<string, unknown>, path: string, value: number): 
  */
 function clears(g: Group, params: PlateParams, fix: ProblemFix): boolean {
   if (fix.value === undefined) return false
-  const next = structuredClone(params) as unknown as Record<string, unknown>
+  // A JSON copy, not structuredClone: in the browser the params may arrive wrapped in a reactive proxy, which structuredClone refuses.
+  const next = JSON.parse(JSON.stringify(params)) as Record<string, unknown>
   setPath(next, fix.field, fix.value)
   try {
     const rebuilt = buildPlate(next as unknown as PlateParams)
