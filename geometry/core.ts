@@ -1,7 +1,7 @@
 // The geometry core: parameters, the plate, units, presets. No PDF or DXF
 // writers, so browser bundles that import only this stay light.
 export { plateParamsSchema, paramIssues, defaultParams, minCasterOffset } from './params'
-export type { PlateParams, PlateParamsInput, LobeOverride, ParamIssue } from './params'
+export type { PlateParams, PlateParamsInput, LobeOverride, ParamIssue, ParamRuleCode } from './params'
 export type * from './types'
 export { buildPlate } from './plate'
 export type { BuildOptions } from './plate'
@@ -17,6 +17,8 @@ export { TUBE_BEARING, LEAST_RABBET_FLOOR } from './checks/pans'
 export { floorStack } from './checks/floor'
 export type { FloorStack } from './checks/floor'
 export { SHEET_MM } from './checks/findings'
+export { problemRows, problemCounts, paramIssueText, fixText, lengthText, numberList, FIELD_LABELS } from './checks/messages'
+export type { ProblemRow, ProblemFix, ProblemRowOptions, MessageUnits } from './checks/messages'
 export { PLYWOOD_DENSITY } from './metrics/metrics'
 export { lensArea, unionArea } from './math/circles'
 export * from './stability'

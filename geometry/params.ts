@@ -172,45 +172,59 @@ export function minCasterOffset(p: Pick<BaseParams, 'pocketDiameter' | 'rabbetWi
   return p.pocketDiameter / 2 + p.rabbetWidth + p.minWood + p.centreHoleDiameter / 2
 }
 
+/** Codes of the cross-field rules below; a page rebuilds the message from the code and its values in the reader's units. */
+export type ParamRuleCode =
+  | 'tube-wall-fills-tube'
+  | 'rabbet-too-deep'
+  | 'caster-offset-small'
+  | 'caster-shorter-than-wheel'
+  | 'swivel-lead-long'
+  | 'bolts-too-long'
+  | 'bolts-too-wide'
+  | 'raceway-too-big'
+  | 'no-such-lobe'
+  | 'lobe-twice'
+
 function crossFieldRules(p: BaseParams, ctx: z.RefinementCtx): void {
-  const issue = (path: (string | number)[], message: string) =>
-    ctx.addIssue({ code: 'custom', path, message })
+  // The message here is the millimetre fallback for API clients; `params` carries the code and the numbers (mm).
+  const issue = (path: (string | number)[], code: ParamRuleCode, values: Record<string, number>, message: string) =>
+    ctx.addIssue({ code: 'custom', path, message, params: { rule: code, values } })
   const fmt = (mm: number) => `${Math.round(mm * 10) / 10} mm`
 
   if (p.tubeWall * 2 >= p.tubeDiameter) {
-    issue(['tubeWall'], `Tube wall ${fmt(p.tubeWall)} leaves no inside for a ${fmt(p.tubeDiameter)} tube.`)
+    issue(['tubeWall'], 'tube-wall-fills-tube', { tubeWall: p.tubeWall, tubeDiameter: p.tubeDiameter }, `Tube wall ${fmt(p.tubeWall)} leaves no inside for a ${fmt(p.tubeDiameter)} tube.`)
   }
   const thickness = p.layers * p.sheetThickness
   if (p.rabbetDepth >= thickness) {
-    issue(['rabbetDepth'], `Rabbet depth ${fmt(p.rabbetDepth)} must be less than the plate thickness ${fmt(thickness)}.`)
+    issue(['rabbetDepth'], 'rabbet-too-deep', { rabbetDepth: p.rabbetDepth, thickness }, `Rabbet depth ${fmt(p.rabbetDepth)} must be less than the plate thickness ${fmt(thickness)}.`)
   }
   const least = minCasterOffset(p)
   if (p.casterOffset < least) {
-    issue(['casterOffset'], `Caster offset ${fmt(p.casterOffset)} is too small for the pocket and its rabbet to clear the centre hole by the minimum wood; use at least ${fmt(least)}.`)
+    issue(['casterOffset'], 'caster-offset-small', { casterOffset: p.casterOffset, least }, `Caster offset ${fmt(p.casterOffset)} is too small for the pocket and its rabbet to clear the centre hole by the minimum wood; use at least ${fmt(least)}.`)
   }
   const c = p.caster
   if (c.overallHeight <= c.wheelDiameter) {
-    issue(['caster', 'overallHeight'], `Caster height ${fmt(c.overallHeight)} must be more than the wheel diameter ${fmt(c.wheelDiameter)}.`)
+    issue(['caster', 'overallHeight'], 'caster-shorter-than-wheel', { overallHeight: c.overallHeight, wheelDiameter: c.wheelDiameter }, `Caster height ${fmt(c.overallHeight)} must be more than the wheel diameter ${fmt(c.wheelDiameter)}.`)
   }
   if (c.swivelLead >= c.wheelDiameter) {
-    issue(['caster', 'swivelLead'], `Swivel lead ${fmt(c.swivelLead)} should be less than the wheel diameter ${fmt(c.wheelDiameter)}.`)
+    issue(['caster', 'swivelLead'], 'swivel-lead-long', { swivelLead: c.swivelLead, wheelDiameter: c.wheelDiameter }, `Swivel lead ${fmt(c.swivelLead)} should be less than the wheel diameter ${fmt(c.wheelDiameter)}.`)
   }
   if (c.boltSpacingX + c.boltDiameter > c.topPlateLength) {
-    issue(['caster', 'boltSpacingX'], `Bolt spacing ${fmt(c.boltSpacingX)} does not fit on a top plate ${fmt(c.topPlateLength)} long.`)
+    issue(['caster', 'boltSpacingX'], 'bolts-too-long', { spacing: c.boltSpacingX, plate: c.topPlateLength, most: c.topPlateLength - c.boltDiameter }, `Bolt spacing ${fmt(c.boltSpacingX)} does not fit on a top plate ${fmt(c.topPlateLength)} long.`)
   }
   if (c.boltSpacingY + c.boltDiameter > c.topPlateWidth) {
-    issue(['caster', 'boltSpacingY'], `Bolt spacing ${fmt(c.boltSpacingY)} does not fit on a top plate ${fmt(c.topPlateWidth)} wide.`)
+    issue(['caster', 'boltSpacingY'], 'bolts-too-wide', { spacing: c.boltSpacingY, plate: c.topPlateWidth, most: c.topPlateWidth - c.boltDiameter }, `Bolt spacing ${fmt(c.boltSpacingY)} does not fit on a top plate ${fmt(c.topPlateWidth)} wide.`)
   }
   if (c.racewayDiameter > Math.max(c.topPlateLength, c.topPlateWidth)) {
-    issue(['caster', 'racewayDiameter'], `Raceway ${fmt(c.racewayDiameter)} is larger than the top plate.`)
+    issue(['caster', 'racewayDiameter'], 'raceway-too-big', { racewayDiameter: c.racewayDiameter, most: Math.max(c.topPlateLength, c.topPlateWidth) }, `Raceway ${fmt(c.racewayDiameter)} is larger than the top plate.`)
   }
   const seen = new Set<number>()
   p.lobes.overrides.forEach((o, i) => {
     if (o.index >= p.lobes.count) {
-      issue(['lobes', 'overrides', i, 'index'], `There is no lobe ${o.index + 1}: the plate has ${p.lobes.count} lobes.`)
+      issue(['lobes', 'overrides', i, 'index'], 'no-such-lobe', { lobe: o.index + 1, count: p.lobes.count }, `There is no lobe ${o.index + 1}: the plate has ${p.lobes.count} lobes.`)
     }
     if (seen.has(o.index)) {
-      issue(['lobes', 'overrides', i, 'index'], `Lobe ${o.index + 1} is changed twice.`)
+      issue(['lobes', 'overrides', i, 'index'], 'lobe-twice', { lobe: o.index + 1 }, `Lobe ${o.index + 1} is changed twice.`)
     }
     seen.add(o.index)
   })
@@ -226,17 +240,28 @@ export type LobeOverride = z.output<typeof lobeOverrideSchema>
 export interface ParamIssue {
   /** Dotted field path, e.g. `caster.boltSpacingX` or `lobes.overrides.2.index`; empty for the whole object. */
   path: string
+  /** Millimetre wording, for API answers; pages rebuild it from `code` and `values` in the reader's units. */
   message: string
+  /** A cross-field rule (ParamRuleCode), or zod's own code (`too_small`, `too_big`, `invalid_type` ...). */
+  code: string
+  /** The numbers behind the message: lengths in mm; `minimum` / `maximum` for a bound. */
+  values?: Record<string, number>
 }
 
 /** Field messages for forms and 422 answers; empty when the input is accepted. */
 export function paramIssues(input: unknown): ParamIssue[] {
   const result = plateParamsSchema.safeParse(input)
   if (result.success) return []
-  return result.error.issues.map((i) => ({
-    path: i.path.map(String).join('.'),
-    message: i.message,
-  }))
+  return result.error.issues.map((i): ParamIssue => {
+    const path = i.path.map(String).join('.')
+    if (i.code === 'custom') {
+      const rule = i.params as { rule?: string; values?: Record<string, number> } | undefined
+      return { path, message: i.message, code: rule?.rule ?? 'custom', ...(rule?.values ? { values: rule.values } : {}) }
+    }
+    if (i.code === 'too_small' && typeof i.minimum === 'number') return { path, message: i.message, code: i.code, values: { minimum: i.minimum } }
+    if (i.code === 'too_big' && typeof i.maximum === 'number') return { path, message: i.message, code: i.code, values: { maximum: i.maximum } }
+    return { path, message: i.message, code: i.code }
+  })
 }
 
 /** The default plate, parsed. */

@@ -14,6 +14,7 @@ import { STABILITY_CAUTIONS } from '../stability/cautions'
 import { resolveFontBytes, unpackWoff, type FontBytes } from './fonts'
 import { COLOURS, Ops, type Rgb } from './pdf-ops'
 import { PT_PER_MM, type ExportUnits } from './units'
+import { savedErrors, savedErrorsLine } from './plate-notes'
 
 const FONT = 'F1'
 
@@ -113,7 +114,7 @@ class Page {
   }
 }
 
-function header(page: Page, meta: BuildSheetMeta, pageNo: number, units: ExportUnits): void {
+function header(page: Page, meta: BuildSheetMeta, pageNo: number, units: ExportUnits, errors: readonly string[]): void {
   const { ops, width } = page
   ops.text('Build sheet', MARGIN, page.y - 16, 16, { colour: COLOURS.accent })
   const title = `${meta.designName}${meta.sizeLabel ? ` (${meta.sizeLabel})` : ''}`
@@ -124,6 +125,18 @@ function header(page: Page, meta: BuildSheetMeta, pageNo: number, units: ExportU
   page.para(line, 8.5, MARGIN, width - 2 * MARGIN, COLOURS.muted)
   ops.style({ colour: COLOURS.accent, width: 0.8 }).line(MARGIN, page.y - 2, width - MARGIN, page.y - 2).stroke()
   page.y -= 8
+  if (errors.length) {
+    // Saved anyway with errors: the builder, who only prints, must learn of it before cutting.
+    const top = page.y
+    page.y -= 4
+    page.para(savedErrorsLine(errors.length), 10, MARGIN + 8, width - 2 * MARGIN - 16, COLOURS.warn)
+    const shown = pageNo === 1 ? errors.slice(0, 4) : []
+    for (const e of shown) page.para(`- ${e}`, 8, MARGIN + 8, width - 2 * MARGIN - 16, COLOURS.ink)
+    if (pageNo === 1 && errors.length > shown.length) page.para(`and ${errors.length - shown.length} more: open the design in Rootplate.`, 8, MARGIN + 8, width - 2 * MARGIN - 16, COLOURS.ink)
+    page.y -= 3
+    ops.style({ colour: COLOURS.warn, width: 1.5 }).rect(MARGIN, page.y, width - 2 * MARGIN, top - page.y).stroke()
+    page.y -= 8
+  }
 }
 
 interface Frame {
@@ -227,7 +240,7 @@ function casterDiagram(page: Page, plate: Plate, box: { x: number; y: number; w:
 }
 
 function firstPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptions): void {
-  header(page, o.meta, 1, o.units)
+  header(page, o.meta, 1, o.units, savedErrors(plate, o.units))
   const L = (mm: number) => sheetLength(mm, o.units)
   const p = plate.params
   const drawH = page.y - MARGIN - 250
@@ -254,7 +267,7 @@ function firstPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptio
 }
 
 function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptions): void {
-  header(page, o.meta, 2, o.units)
+  header(page, o.meta, 2, o.units, savedErrors(plate, o.units))
   const u = o.units
   const L = (mm: number) => sheetLength(mm, u)
   const M = (kg: number) => formatMass(kg, u)

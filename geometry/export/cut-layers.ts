@@ -16,6 +16,8 @@ export const LAYER_RABBET_PREFIX = 'RP-RABBET-'
 export const LAYER_DRILL = 'RP-DRILL'
 export const LAYER_REFERENCE = 'RP-REFERENCE'
 export const LAYER_HOLESAW_PREFIX = 'RP-HOLESAW-'
+/** Text only, never cut: design, revision, pieces, layer, face up, thickness, and any errors it was saved with. */
+export const LAYER_NOTES = 'RP-NOTES'
 /** A hole saw's pilot drill, mm: 1/4 in on common arbors (from memory). */
 export const HOLE_SAW_PILOT = 6.35
 

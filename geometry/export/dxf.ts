@@ -4,9 +4,20 @@
 
 import Drawing from 'dxf-writer'
 import type { Plate } from '../types'
-import { buildCutDrawing, type CutOptions, type LayerRole } from './cut-layers'
+import { buildCutDrawing, LAYER_NOTES, type CutOptions, type LayerRole } from './cut-layers'
+import { PLATE_LAYER_LABEL } from './layers'
+import { cutListLines, savedErrors, savedErrorsLine } from './plate-notes'
 
-export type DxfOptions = CutOptions
+/** What the notes layer says about the design the file was made from. */
+export interface CutFileMeta {
+  designName: string
+  sizeLabel?: string
+  revision?: number
+}
+
+export interface DxfOptions extends CutOptions {
+  meta?: CutFileMeta
+}
 
 /** AutoCAD Color Index numbers per operation, chosen so the layers are easy to tell apart on screen. */
 const LAYER_COLOUR: Record<LayerRole, number> = {
@@ -29,6 +40,7 @@ export function renderCutDxf(plate: Plate, options: DxfOptions): string {
   for (const layer of cut.layers) {
     d.addLayer(layer.name, LAYER_COLOUR[layer.role], layer.cut ? 'CONTINUOUS' : 'DASHED')
   }
+  d.addLayer(LAYER_NOTES, 7, 'CONTINUOUS')
   for (const layer of cut.layers) {
     d.setActiveLayer(layer.name)
     for (const e of layer.entities) {
@@ -37,5 +49,39 @@ export function renderCutDxf(plate: Plate, options: DxfOptions): string {
       else d.drawPolyline(e.points, e.closed)
     }
   }
+  writeNotes(d, plate, options, cut.bounds, cut.units)
   return d.toDxfString()
+}
+
+/**
+ * The notes, as TEXT on a layer no machine cuts, below the drawing: a CNC
+ * shop reading only this file still learns what it is, how many to cut, the
+ * face up and the thickness, and that the revision was saved with errors.
+ */
+function writeNotes(d: Drawing, plate: Plate, options: DxfOptions, bounds: { minX: number; minY: number }, units: 'in' | 'mm'): void {
+  const layer = options.layer ?? 'all'
+  const meta = options.meta
+  const errors = savedErrors(plate, units)
+  const title = [
+    meta?.designName ?? 'Rootplate plate',
+    meta?.sizeLabel,
+    meta?.revision !== undefined ? `revision ${meta.revision}` : undefined,
+    PLATE_LAYER_LABEL[layer],
+    `units ${units === 'in' ? 'inches' : 'millimetres'}`,
+  ].filter((s): s is string => !!s).join(' - ')
+  const lines = [
+    ...(errors.length ? [savedErrorsLine(errors.length), ...errors.map((e) => `  ${e}`)] : []),
+    title,
+    ...cutListLines(plate, layer, units, options.mirror ?? false),
+    'This layer (RP-NOTES) is notes only: do not cut it.',
+  ]
+  const height = units === 'in' ? 0.2 : 5
+  const gap = height * 1.7
+  d.setActiveLayer(LAYER_NOTES)
+  let y = bounds.minY - 2 * gap
+  for (const line of lines) {
+    // DXF TEXT is one line of plain characters: keep it to what every reader shows.
+    d.drawText(bounds.minX, y, height, 0, line.replace(/[^\x20-\x7e]/g, (c) => (c === '\u00b0' ? ' deg' : c === '\u00b7' ? '-' : '?')))
+    y -= gap
+  }
 }

@@ -52,6 +52,7 @@ export {
   LAYER_RABBET_PREFIX,
   LAYER_DRILL,
   LAYER_REFERENCE,
+  LAYER_NOTES,
   OUTLINE_CHORD_ERROR,
   type CutOptions,
   type CutDrawing,
@@ -59,7 +60,8 @@ export {
   type CutEntity,
   type LayerRole,
 } from './cut-layers'
-export { renderCutDxf, type DxfOptions } from './dxf'
+export { renderCutDxf, type DxfOptions, type CutFileMeta } from './dxf'
+export { SAVED_WITH_ERRORS, savedErrors, savedErrorsLine, piecesFor, cutListLines, type PieceCount } from './plate-notes'
 export { renderCutSvg, type SvgOptions } from './svg'
 export { exportFileName, slugify, type ExportFileMeta } from './filename'
 export { TEMPLATE_FONT_FILE, resolveFontBytes, type FontBytes } from './fonts'

@@ -58,8 +58,20 @@ export interface TextOptions {
   colour?: Rgb
 }
 
+/** A text label kept aside instead of written, with its box in the drawing's units. */
+export interface HeldLabel {
+  text: string
+  x: number
+  y: number
+  size: number
+  options: TextOptions
+  /** The four corners of the text's box (descender to cap height), counter-clockwise. */
+  corners: [number, number][]
+}
+
 export class Ops {
   private readonly parts: string[] = []
+  private held: HeldLabel[] | null = null
 
   constructor(
     private readonly font: PDFFont | null = null,
@@ -189,6 +201,16 @@ export class Ops {
     return encode(this.font, sanitise(this.font, text), size).width
   }
 
+  /**
+   * From now on text() keeps each label in `into` instead of writing it, so
+   * the tiled writer can put every label whole on a sheet (a label cut by a
+   * sheet's edge reads as nonsense: "bbet 7-3/4 in").
+   */
+  holdLabels(into: HeldLabel[]): this {
+    this.held = into
+    return this
+  }
+
   text(text: string, x: number, y: number, size: number, options: TextOptions = {}): this {
     if (!this.font) throw new Error('No font given to this content stream.')
     const safe = sanitise(this.font, text)
@@ -200,6 +222,11 @@ export class Ops {
     const sin = Math.sin(a)
     const tx = x - shift * cos
     const ty = y - shift * sin
+    if (this.held) {
+      const box: [number, number][] = [[0, -0.25 * size], [w, -0.25 * size], [w, 0.8 * size], [0, 0.8 * size]]
+      this.held.push({ text, x, y, size, options, corners: box.map(([u, v]) => [tx + u * cos - v * sin, ty + u * sin + v * cos]) })
+      return this
+    }
     const c = options.colour ?? COLOURS.ink
     return this.raw(
       `BT ${num(c[0])} ${num(c[1])} ${num(c[2])} rg /${this.fontName} ${num(size)} Tf ${num(cos)} ${num(sin)} ${num(-sin)} ${num(cos)} ${num(tx)} ${num(ty)} Tm ${hex} Tj ET`,

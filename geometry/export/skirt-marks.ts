@@ -6,7 +6,7 @@ import type { Plate } from '../types'
 import type { SkirtStrip } from '../skirt/strips'
 import type { ExtraMarks } from './extra-marks'
 import type { LineStyle, Rgb } from './pdf-ops'
-import { formatShopLength, type ExportUnits } from './units'
+import { formatTapeLength, type ExportUnits } from './units'
 
 export const SKIRT_COLOUR: Rgb = [0.63, 0.32, 0.18]
 export const SKIRT_STYLE: LineStyle = { colour: SKIRT_COLOUR, width: 0.4 }
@@ -58,7 +58,7 @@ export function wrapStripMarks(plate: Plate, strips: readonly SkirtStrip[], heig
         const top = Math.min(s.rise, height - 2)
         ops.style({ ...SKIRT_STYLE, width: 0.25, dash: [2, 1.5] }).line(x, 0, x, top).stroke()
         if (s.rise <= height - 2) ops.style({ ...SKIRT_STYLE, width: 0.6 }).line(x - 3, s.rise, x + 3, s.rise).stroke()
-        const label = `${s.number}: ${s.rise > height - 2 ? 'top above, at ' : ''}${formatShopLength(s.rise, units)}`
+        const label = `${s.number}: ${s.rise > height - 2 ? 'top above, at ' : ''}${formatTapeLength(s.rise, units)}`
         ops.text(label, x - 0.8, Math.min(s.rise, height - 2) - 2, 2.2, { angle: 90, align: 'right', colour: SKIRT_COLOUR })
       }
     },

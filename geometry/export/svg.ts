@@ -3,6 +3,7 @@
 
 import type { Plate } from '../types'
 import { buildCutDrawing, type CutOptions, type LayerRole } from './cut-layers'
+import { cutListLines, savedErrors, savedErrorsLine } from './plate-notes'
 
 export type SvgOptions = CutOptions
 
@@ -38,6 +39,10 @@ export function renderCutSvg(plate: Plate, options: SvgOptions): string {
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${n(width)}${u}" height="${n(height)}${u}" viewBox="${n(minX)} ${n(-maxY)} ${n(width)} ${n(height)}" fill="none" stroke-linecap="round" stroke-linejoin="round">`,
   ]
+  // The notes the DXF carries on RP-NOTES, as the file's description: never drawn, so never cut.
+  const errors = savedErrors(plate, u)
+  const notes = [...(errors.length ? [savedErrorsLine(errors.length), ...errors] : []), ...cutListLines(plate, cut.layer, u, options.mirror ?? false)]
+  lines.push(`<desc>${escapeXml(notes.join('\n'))}</desc>`)
   for (const layer of cut.layers) {
     const dash = layer.cut ? '' : ` stroke-dasharray="${n(stroke * 12)} ${n(stroke * 6)}"`
     lines.push(

@@ -11,6 +11,7 @@ import { assertPlateLayer, PLATE_LAYER_LABEL, type PlateLayer } from './layers'
 import { renderTiledPdf, type LegendEntry, type TemplateMeta, type TiledDrawing } from './tiled-pdf'
 import { tilePlate, type Orientation, type PaperName, type Tiling } from './tiling'
 import { assertExportUnits, formatShopLength, type ExportUnits } from './units'
+import { cutListLines, piecesFor, savedErrors, savedErrorsLine } from './plate-notes'
 
 export interface BushingOptions {
   /** Outside diameter of the router guide bushing, mm. */
@@ -238,6 +239,18 @@ function drawPlateBody(ops: Ops, plate: Plate, units: ExportUnits, pattern: Guid
   ops.style(S.centre).cross(plate.trunk.x, plate.trunk.y, 10).stroke()
 }
 
+/** `cut 2 per plate · both layers · top face up · 0.703 in plywood`: the cut list in one line for every sheet. */
+function sheetNote(plate: Plate, layer: PlateLayer, units: ExportUnits): string {
+  const { top, bottom } = piecesFor(plate, layer)
+  return `cut ${top + bottom} per plate  ·  ${PLATE_LAYER_LABEL[layer]}  ·  top face up  ·  ${formatShopLength(plate.params.sheetThickness, units)} plywood`
+}
+
+/** The cover's red box and each sheet's warning line, for a revision saved with errors. */
+export function savedErrorsAlert(plate: Plate, units: ExportUnits): Pick<TiledDrawing, 'alerts'> {
+  const errors = savedErrors(plate, units)
+  return errors.length ? { alerts: { heading: savedErrorsLine(errors.length), lines: errors } } : {}
+}
+
 export interface PlateTemplate {
   drawing: TiledDrawing
   tiling: Tiling
@@ -273,7 +286,6 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
   if (pattern) legend.push({ label: 'router pattern line (guide bushing)', style: S.router })
   if (pattern && pattern.unreachable.length > 0) legend.push({ label: 'bushing cannot reach (hatched): cut by hand', style: S.unreachable })
   const notes: string[] = []
-  if (layer !== 'all') notes.push(`This template is for the ${PLATE_LAYER_LABEL[layer]}.`)
   if (pattern) {
     notes.push(
       `Router pattern for a guide bushing: make the pattern to the long-dashed lines, ${formatShopLength(pattern.offset, units)} ((bushing - bit) / 2) inside the outside cut line and outside each routed opening; the bushing rides the pattern and the bit cuts on the cut lines.`,
@@ -305,6 +317,9 @@ export function planTemplate(plate: Plate, options: TemplateOptions): PlateTempl
     ],
     legend,
     notes,
+    cutList: cutListLines(plate, layer, units),
+    sheetNote: sheetNote(plate, layer, units),
+    ...savedErrorsAlert(plate, units),
   }
   return { drawing: withExtraMarks(drawing, options.extraMarks), tiling }
 }

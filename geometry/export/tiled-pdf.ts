@@ -8,11 +8,12 @@ import fontkit from '@pdf-lib/fontkit'
 import { PDFDocument, PDFName, type PDFFont, type PDFRef } from 'pdf-lib'
 import type { Point } from '../types'
 import { resolveFontBytes, unpackWoff, type FontBytes } from './fonts'
-import { COLOURS, encode, Ops, sanitise, type LineStyle, type Rgb } from './pdf-ops'
+import { COLOURS, encode, Ops, sanitise, type HeldLabel, type LineStyle, type Rgb } from './pdf-ops'
 import { simplifyClosed } from './polyline'
 import {
   edgesTouchRect,
   PAPERS,
+  polygonTouchesRect,
   pageSizePt,
   rectContains,
   registrationPoints,
@@ -53,6 +54,12 @@ export interface TiledDrawing {
   legend: LegendEntry[]
   /** Lines for the cover under the assembly steps. */
   notes: string[]
+  /** A warning the cover shows boxed in red and every sheet repeats in short (a revision saved with errors). */
+  alerts?: { heading: string; lines: string[] }
+  /** What to cut from this file (pieces, layers, face up, thickness), first on the cover. */
+  cutList?: string[]
+  /** One short line for every sheet's title block, e.g. `cut 2 per plate · top face up · 0.703 in plywood`. */
+  sheetNote?: string
 }
 
 export interface TiledPdfSettings {
@@ -217,7 +224,22 @@ function drawCover(
     colour: COLOURS.warn,
   })
   warnLines.forEach((line, i) => ops.text(line, m + 10, y - 36 - i * 12, 9.5))
-  y -= boxH + 22
+  y -= boxH + 10
+
+  if (drawing.alerts) {
+    // At most five problems listed: enough to see what is wrong; the editor has the rest.
+    const shown = drawing.alerts.lines.slice(0, 5)
+    const more = drawing.alerts.lines.length - shown.length
+    const body = [...shown.map((l) => `- ${l}`), ...(more > 0 ? [`and ${more} more: open the design in Rootplate.`] : [])]
+      .flatMap((l) => wrap(font, l, 8.5, width - 20))
+    const alertH = 26 + body.length * 10.5
+    ops.fillColour(COLOURS.warnTint).rect(m, y - alertH, width, alertH).fill()
+    ops.style({ colour: COLOURS.warn, width: 2 }).rect(m, y - alertH, width, alertH).stroke()
+    ops.text(drawing.alerts.heading, m + 10, y - 16, 11, { colour: COLOURS.warn })
+    body.forEach((line, i) => ops.text(line, m + 10, y - 30 - i * 10.5, 8.5))
+    y -= alertH + 10
+  }
+  y -= 12
 
   // The scale squares, exactly 1 in and 25 mm.
   const inch = 72
@@ -239,7 +261,7 @@ function drawCover(
     `${tiling.printed} sheet${tiling.printed === 1 ? '' : 's'} of ${spec.label}, ${tiling.orientation}` +
       (spec.height === null ? `, each ${formatShopLength(tiling.pageHeight, units)} by ${formatShopLength(tiling.pageWidth, units)}` : '') +
       ` (grid ${tiling.rows} x ${tiling.cols}${left > 0 ? `, ${left} empty left out` : ''}).`,
-    `Margin ${formatShopLength(tiling.margin, units)}, overlap ${formatShopLength(tiling.overlap, units)}. Rows are lettered from the top, columns numbered from the left.`,
+    `Margin ${formatShopLength(tiling.margin, units)}, overlap ${formatShopLength(tiling.overlap, units)}. Sheets are named by row and column: R1-C2 is row 1 (rows counted from the top), column 2 (columns counted from the left).`,
   ]
   const steps = [
     '1. Trim each sheet along its dashed trim lines (left and top edges).',
@@ -247,7 +269,11 @@ function drawCover(
     '3. The labels at each edge name the neighbouring sheet; the small map shows where each sheet goes.',
   ]
   let ty = sqTop - 9
-  for (const para of [...summary, ...steps, ...drawing.notes]) {
+  if (drawing.cutList?.length) {
+    ops.text('Cut list', tx, ty, 9, { colour: COLOURS.accent })
+    ty -= 13
+  }
+  for (const para of [...(drawing.cutList ?? []), ...summary, ...steps, ...drawing.notes]) {
     for (const line of wrap(font, para, 8.5, textWidth)) {
       ops.text(line, tx, ty, 8.5)
       ty -= 11
@@ -272,7 +298,7 @@ function drawCover(
 
   // The page map fills what is left between the squares and the legend.
   const mapTop = y - 14
-  ops.text('Page map (dotted cells are left out: nothing of the drawing on them)', m, mapTop + 2, 9, {
+  ops.text('Page map (dotted cells are left out: nothing on them that another sheet does not carry)', m, mapTop + 2, 9, {
     colour: COLOURS.accent,
   })
   const mapH = mapTop - 8 - (legendTop + 14)
@@ -293,8 +319,10 @@ function drawSheet(
   settings: TiledPdfSettings,
   date: string,
   mapSize: [number, number],
-  avoid: TiledDrawing['avoid'],
+  drawing: Pick<TiledDrawing, 'avoid' | 'alerts' | 'sheetNote'>,
+  labels: readonly HeldLabel[],
 ): void {
+  const { avoid } = drawing
   const k = PT_PER_MM
   const wx = tiling.margin * k
   const wy = tiling.margin * k
@@ -309,7 +337,9 @@ function drawSheet(
   if (n.below && o > 0) ops.rect(wx, wy, ww, o).fill()
 
   const t = sheetTransform(tiling, sheet)
-  ops.save().rect(wx, wy, ww, wh).clip().transformExact(t.scale, 0, 0, t.scale, t.tx, t.ty).drawObject(BODY).restore()
+  ops.save().rect(wx, wy, ww, wh).clip().transformExact(t.scale, 0, 0, t.scale, t.tx, t.ty).drawObject(BODY)
+  for (const l of labels) ops.text(l.text, l.x, l.y, l.size, l.options)
+  ops.restore()
 
   const trim: LineStyle = { colour: COLOURS.guide, width: 0.7, dash: [6, 3] }
   const match: LineStyle = { colour: COLOURS.guide, width: 0.5 }
@@ -377,10 +407,12 @@ function drawSheet(
     settings.meta.designName,
     metaLine(settings.meta, date),
     `sheet ${index} of ${tiling.printed}  ·  full size 1:1`,
+    ...(drawing.sheetNote ? [drawing.sheetNote] : []),
+    ...(drawing.alerts ? [drawing.alerts.heading] : []),
   ]
   // Room right of the map for the upright scale bars, and below it for the level ones.
   const blockW = Math.max(mapSize[0] + VERTICAL_BARS_WIDTH, 100, labelWidth + 10 + Math.max(...info.map((line) => ops.textWidth(line, 7.5))))
-  const blockH = 38 + Math.max(mapSize[1] + 26, 72 + 4)
+  const blockH = 38 + Math.max(0, info.length - 3) * 9.5 + Math.max(mapSize[1] + 26, 72 + 4)
   const left = wx + o + 10
   const right = wx + ww - o - 10 - blockW
   const top = wy + wh - o - 10
@@ -409,8 +441,11 @@ function drawSheet(
   const [bx, blockTop] = best
   let by = blockTop
   ops.text(sheet.label, bx, by - 26, 30, { colour: COLOURS.accent })
-  info.forEach((line, i) => ops.text(line, bx + labelWidth + 10, by - 8 - i * 9.5, 7.5, { colour: i === 0 ? COLOURS.ink : COLOURS.muted }))
-  by -= 38
+  info.forEach((line, i) => {
+    const alert = drawing.alerts && i === info.length - 1
+    ops.text(line, bx + labelWidth + 10, by - 8 - i * 9.5, 7.5, { colour: alert ? COLOURS.warn : i === 0 ? COLOURS.ink : COLOURS.muted })
+  })
+  by -= 38 + Math.max(0, info.length - 3) * 9.5
   const mh = mapSize[1]
   ops.save().transform(1, 0, 0, 1, bx, by - mh).drawObject(MAP).restore()
   const f = locationFrame(tiling, mapSize)
@@ -438,6 +473,45 @@ function drawSheet(
   upright(vx + 18, mm, '25 mm')
 }
 
+/**
+ * Each label goes on every printed sheet that holds it whole, and nowhere in
+ * part. A label no printed sheet holds whole is moved the least distance into
+ * the printed sheet nearest to it (its text stays within a few mm of what it
+ * names, on a sheet that is printed); one larger than a sheet is left whole
+ * across the sheets it touches.
+ */
+export function placeLabels(labels: readonly HeldLabel[], tiling: Tiling): Map<Sheet, HeldLabel[]> {
+  const printed = tiling.sheets.filter((s) => !s.empty)
+  const out = new Map<Sheet, HeldLabel[]>(printed.map((s) => [s, []]))
+  const inset = 0.5
+  const holds = (s: Sheet, l: HeldLabel) => l.corners.every(([x, y]) => x >= s.window.minX + inset && x <= s.window.maxX - inset && y >= s.window.minY + inset && y <= s.window.maxY - inset)
+  for (const label of labels) {
+    let l = label
+    if (!printed.some((s) => holds(s, l))) {
+      let best: { dx: number; dy: number; cost: number } | null = null
+      const xs = l.corners.map((c) => c[0])
+      const ys = l.corners.map((c) => c[1])
+      const [minX, maxX, minY, maxY] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)]
+      for (const s of printed) {
+        const w = s.window
+        if (maxX - minX > w.maxX - w.minX - 2 * inset || maxY - minY > w.maxY - w.minY - 2 * inset) continue
+        const dx = minX < w.minX + inset ? w.minX + inset - minX : maxX > w.maxX - inset ? w.maxX - inset - maxX : 0
+        const dy = minY < w.minY + inset ? w.minY + inset - minY : maxY > w.maxY - inset ? w.maxY - inset - maxY : 0
+        const cost = Math.hypot(dx, dy)
+        if (!best || cost < best.cost) best = { dx, dy, cost }
+      }
+      if (best) {
+        const { dx, dy } = best
+        l = { ...l, x: l.x + dx, y: l.y + dy, corners: l.corners.map(([x, y]) => [x + dx, y + dy] as [number, number]) }
+      }
+    }
+    const on = printed.filter((s) => holds(s, l))
+    // Larger than any sheet: drawn as before, across the sheets it touches, rather than lost.
+    for (const s of on.length ? on : printed.filter((p) => polygonTouchesRect(l.corners, p.window))) out.get(s)!.push(l)
+  }
+  return out
+}
+
 /** Width kept right of the location map for the two upright scale bars, pt. */
 const VERTICAL_BARS_WIDTH = 40
 
@@ -460,7 +534,9 @@ export async function renderTiledPdf(drawing: TiledDrawing, tiling: Tiling, sett
     ctx.register(ctx.flateStream(content, dict as never))
 
   const bodyOps = new Ops(font, FONT)
-  drawing.drawBody(bodyOps)
+  const labels: HeldLabel[] = []
+  drawing.drawBody(bodyOps.holdLabels(labels))
+  const perSheet = placeLabels(labels, tiling)
   // Labels may run past the content bounds; the box only has to contain what is drawn.
   const b = tiling.grid
   const spill = 500
@@ -497,7 +573,7 @@ export async function renderTiledPdf(drawing: TiledDrawing, tiling: Tiling, sett
     index++
     const page = doc.addPage(size)
     const ops = new Ops(font, FONT)
-    drawSheet(ops, tiling, sheet, index, crosses, settings, date, mapSize, drawing.avoid)
+    drawSheet(ops, tiling, sheet, index, crosses, settings, date, mapSize, drawing, perSheet.get(sheet) ?? [])
     page.node.addContentStream(register(ops.toString()))
     page.node.setFontDictionary(fontName, font.ref)
     page.node.setXObject(PDFName.of(BODY), bodyRef)

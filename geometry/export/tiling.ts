@@ -95,15 +95,15 @@ export interface SheetNeighbours {
 }
 
 export interface Sheet {
-  /** 0 is the top row, lettered A. */
+  /** 0 is the top row, named R1. */
   row: number
   /** 0 is the left column, numbered 1. */
   col: number
-  /** e.g. `B2`. */
+  /** e.g. `R2-C3`. */
   label: string
   /** The printable area of this sheet in plate coordinates, overlap strips included. */
   window: Rect
-  /** Nothing of the content on it: left out of the file. */
+  /** Nothing of the content on it, or only what printed neighbours' overlaps carry too: left out of the file. */
   empty: boolean
   /** Labels of the printed neighbours; null where there is none or it is left out. */
   neighbours: SheetNeighbours
@@ -145,8 +145,12 @@ export function rowLabel(row: number): string {
   return s
 }
 
+/**
+ * `R1-C2`: row 1 (from the top), column 2 (from the left). Written so no
+ * sheet name reads like a paper size (A3, A4, B5) on a table of taped sheets.
+ */
 export function sheetLabel(row: number, col: number): string {
-  return `${rowLabel(row)}${col + 1}`
+  return `R${row + 1}-C${col + 1}`
 }
 
 function pointInPolygon(x: number, y: number, polygon: Point[]): boolean {
@@ -311,6 +315,7 @@ function layout(
   }
   const at = (row: number, col: number): Sheet | undefined =>
     row >= 0 && row < rows && col >= 0 && col < cols ? sheets[row * cols + col] : undefined
+  leaveOutCovered(sheets, content, at, overlap)
   const labelIfPrinted = (s: Sheet | undefined): string | null => (s && !s.empty ? s.label : null)
   for (const s of sheets) {
     s.neighbours = {
@@ -337,6 +342,49 @@ function layout(
     printed: sheets.filter((s) => !s.empty).length,
     grid,
     content: content.bounds,
+  }
+}
+
+/**
+ * Leaves out a sheet whose lines all lie in overlap strips that printed
+ * neighbours carry too: a sheet holding only a sliver of line inside its
+ * overlap would add paper and taping for nothing. A sheet's window is cut
+ * into up to 3 x 3 parts at its overlap lines; a part counts as carried when
+ * another printed sheet's window holds it. Sheets are tried from the least
+ * content (fewest touched parts) up, one at a time, so two sheets never both
+ * leave a shared strip to each other.
+ */
+function leaveOutCovered(sheets: Sheet[], content: TileContent, at: (row: number, col: number) => Sheet | undefined, overlap: number): void {
+  if (overlap <= 0) return
+  const parts = (s: Sheet): Rect[] => {
+    const w = s.window
+    const xs = [w.minX, ...(at(s.row, s.col - 1) ? [w.minX + overlap] : []), ...(at(s.row, s.col + 1) ? [w.maxX - overlap] : []), w.maxX]
+    const ys = [w.minY, ...(at(s.row + 1, s.col) ? [w.minY + overlap] : []), ...(at(s.row - 1, s.col) ? [w.maxY - overlap] : []), w.maxY]
+    const out: Rect[] = []
+    for (let i = 0; i + 1 < xs.length; i++) {
+      for (let j = 0; j + 1 < ys.length; j++) out.push({ minX: xs[i]!, maxX: xs[i + 1]!, minY: ys[j]!, maxY: ys[j + 1]! })
+    }
+    return out
+  }
+  const touched = new Map<Sheet, Rect[]>()
+  for (const s of sheets) {
+    if (s.empty) continue
+    touched.set(s, parts(s).filter((r) => content.polygons.some((p) => polygonTouchesRect(p, r))))
+  }
+  const carried = (s: Sheet, r: Rect): boolean => {
+    const cx = (r.minX + r.maxX) / 2
+    const cy = (r.minY + r.maxY) / 2
+    for (let dr = -1; dr <= 1; dr++) {
+      for (let dc = -1; dc <= 1; dc++) {
+        const o = dr === 0 && dc === 0 ? undefined : at(s.row + dr, s.col + dc)
+        if (o && !o.empty && rectContains(o.window, [cx, cy]) && rectContains(o.window, [r.minX, r.minY]) && rectContains(o.window, [r.maxX, r.maxY])) return true
+      }
+    }
+    return false
+  }
+  const order = [...touched.entries()].sort((a, b) => a[1].length - b[1].length)
+  for (const [s, rects] of order) {
+    if (rects.every((r) => carried(s, r))) s.empty = true
   }
 }
 

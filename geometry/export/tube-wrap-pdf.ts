@@ -9,9 +9,9 @@ import { withExtraMarks, type ExtraMarks } from './extra-marks'
 import { COLOURS, Ops } from './pdf-ops'
 import { renderTiledPdf, type LegendEntry, type TemplateMeta, type TiledDrawing } from './tiled-pdf'
 import { boundsOf, DEFAULT_PAD, tileContent, type Orientation, type PaperName, type Tiling } from './tiling'
-import { TEMPLATE_STYLES } from './template-pdf'
+import { savedErrorsAlert, TEMPLATE_STYLES } from './template-pdf'
 import { MM_PER_INCH } from '../units'
-import { assertExportUnits, formatShopLength, type ExportUnits } from './units'
+import { assertExportUnits, formatTapeLength, type ExportUnits } from './units'
 
 export interface TubeWrapOptions {
   paper: PaperName
@@ -84,7 +84,8 @@ export function tubeWrapLayout(plate: Plate, options: Pick<TubeWrapOptions, 'hei
 
 function drawWrapBody(ops: Ops, layout: TubeWrapLayout, plate: Plate, units: ExportUnits): void {
   const { circumference: C, height: H, notchHeight: NH, tab } = layout
-  const len = (mm: number) => formatShopLength(mm, units)
+  // Marks are measured with a tape round the tube: fractions, not decimals.
+  const len = (mm: number) => formatTapeLength(mm, units)
   const S = TEMPLATE_STYLES
 
   // The glue tab repeats the start of the strip, so its notch parts repeat too.
@@ -101,7 +102,7 @@ function drawWrapBody(ops: Ops, layout: TubeWrapLayout, plate: Plate, units: Exp
       const align = a <= 0 ? 'left' : b >= C ? 'right' : 'center'
       const x = align === 'left' ? a + 2 : align === 'right' ? b - 2 : (a + b) / 2
       ops.text(`notch over ${pocket}`, x, NH + 12, 3.2, { align, colour: COLOURS.notch })
-      ops.text(`${len(n.width)} wide, centre ${len(n.centre)} from the index line`, x, NH + 7.5, 2.6, {
+      ops.text(`${len(n.width)} wide, ${len(NH)} high, centre ${len(n.centre)} from the index line`, x, NH + 7.5, 2.6, {
         align,
         colour: COLOURS.muted,
       })
@@ -176,8 +177,11 @@ export function planTubeWrap(plate: Plate, options: TubeWrapOptions): TubeWrap {
     avoid: [{ shape: strip, weight: 1 }],
     legend,
     notes: [
-      `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them. Notch height ${formatShopLength(layout.notchHeight, units)}: the pan's rise above the plate plus a clearance for its crown and the caster's nuts.`,
+      `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them.`,
+      `Each notch is ${formatTapeLength(layout.notchHeight, units)} high: how far the pan rises above the plate, plus a clearance for its crown and the caster's nuts. It follows from the pan depth and the rabbet depth set in the editor; change those to change it.`,
+      `Tube ${formatTapeLength(plate.trunk.diameter, units)} outside, circumference ${formatTapeLength(layout.circumference, units)}; ${layout.notches.length} notch${layout.notches.length === 1 ? '' : 'es'}, one over each pocket.`,
     ],
+    ...savedErrorsAlert(plate, units),
   }
   return { drawing: withExtraMarks(drawing, options.extraMarks), tiling, layout }
 }

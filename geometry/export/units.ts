@@ -59,3 +59,29 @@ export function formatShopLength(mm: number, units: ExportUnits, withUnit = true
   if (negative) text = `-${text}`
   return withUnit ? `${text} in` : text
 }
+
+/**
+ * A length to mark with a tape: inches to the nearest 1/32 as whole and
+ * fraction (`7-3/16 in`, never `7.180 in`), millimetres to the nearest 0.5.
+ * For marks measured off a tape, where a drawing is also full size to check
+ * against; 1/32 in is under 1 mm, finer than a pencil line.
+ */
+export function formatTapeLength(mm: number, units: ExportUnits, withUnit = true): string {
+  if (units === 'mm') {
+    const text = String(Math.round(mm * 2) / 2)
+    return withUnit ? `${text} mm` : text
+  }
+  const negative = mm < 0
+  const steps = Math.round((Math.abs(mm) / MM_PER_INCH) * 32)
+  const whole = Math.floor(steps / 32)
+  const rest = steps % 32
+  let text: string
+  if (rest === 0) text = `${whole}`
+  else {
+    const g = gcd(rest, 32)
+    const fraction = `${rest / g}/${32 / g}`
+    text = whole === 0 ? fraction : `${whole}-${fraction}`
+  }
+  if (negative && steps > 0) text = `-${text}`
+  return withUnit ? `${text} in` : text
+}

@@ -73,7 +73,7 @@ export async function runExportJob(job: ExportJob): Promise<Uint8Array | string>
       refuseTooManySheets(tiling.printed, q.paper, 'tube wrap')
       return tubeWrapPdf(plate, job.revision, q, job.font)
     }
-    case 'cut-dxf': return cutDxf(plate, job.query)
+    case 'cut-dxf': return cutDxf(plate, job.query, job.revision)
     case 'cut-svg': return cutSvg(plate, job.query)
     case 'build-sheet': return buildSheetPdf(plate, job.revision, job.query, job.font)
     case 'skirt-profiles': return skirtProfilesPdf(plate, job.revision, job.query, job.font)

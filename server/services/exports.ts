@@ -115,8 +115,10 @@ function refuseMirroredRabbets<T>(write: () => T): T {
   }
 }
 
-export function cutDxf(plate: Plate, q: z.output<typeof cutQuerySchema>): string {
-  return refuseMirroredRabbets(() => renderCutDxf(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer }))
+/** `revision` names the design on the file's notes layer; without it the notes say only what the plate shows. */
+export function cutDxf(plate: Plate, q: z.output<typeof cutQuerySchema>, revision?: RevisionForExport): string {
+  const meta = revision ? { designName: revision.designName, sizeLabel: revision.sizeLabel ?? undefined, revision: revision.number } : undefined
+  return refuseMirroredRabbets(() => renderCutDxf(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer, meta }))
 }
 
 export function cutSvg(plate: Plate, q: z.output<typeof cutQuerySchema>): string {

@@ -3,7 +3,7 @@ import DxfParser, { type ICircleEntity, type IDxf, type IEntity, type ILwpolylin
 import { describe, expect, it } from 'vitest'
 import type { Plate, Point } from '../../../geometry/types'
 import { renderCutDxf } from '../../../geometry/export/dxf'
-import { LAYER_DRILL, LAYER_INSIDE, LAYER_OUTSIDE, LAYER_REFERENCE, rabbetLayerName } from '../../../geometry/export/cut-layers'
+import { LAYER_DRILL, LAYER_INSIDE, LAYER_OUTSIDE, LAYER_NOTES, LAYER_REFERENCE, rabbetLayerName } from '../../../geometry/export/cut-layers'
 import { fixturePlate, shoelace, distanceToPolygon } from './fixture'
 
 const IN = 25.4 // mm per inch, exact (NIST SP 811)
@@ -143,12 +143,13 @@ describe('renderCutDxf geometry', () => {
   it('has no text or dimensions on cut layers and no duplicate entities (CNC practice, common practice)', () => {
     const dupPlate: Plate = { ...plate, holes: [...plate.holes, { ...plate.holes[0]!, id: 'copy' }] }
     const dxf = parse(renderCutDxf(dupPlate, { units: 'mm' }))
-    const cutLayers = new Set(dxf.entities.map((e) => e.layer).filter((l) => l !== LAYER_REFERENCE))
+    const cutLayers = new Set(dxf.entities.map((e) => e.layer).filter((l) => l !== LAYER_REFERENCE && l !== LAYER_NOTES))
     expect(cutLayers.size).toBeGreaterThanOrEqual(4)
-    for (const e of dxf.entities) {
+    // Text is allowed only on the notes layer, which is never cut.
+    for (const e of dxf.entities.filter((x) => x.layer !== LAYER_NOTES)) {
       expect(['TEXT', 'MTEXT', 'DIMENSION']).not.toContain(e.type)
     }
-    const keys = dxf.entities.map((e) => {
+    const keys = dxf.entities.filter((e) => e.layer !== LAYER_NOTES).map((e) => {
       if (e.type === 'CIRCLE') {
         const c = e as ICircleEntity
         return `${e.layer} C ${c.center.x.toFixed(6)} ${c.center.y.toFixed(6)} ${c.radius.toFixed(6)}`

@@ -18,6 +18,7 @@ import {
   renderCutSvg,
   renderTemplatePdf,
   tubeWrapLayout,
+  tilePlate,
   LAYER_INSIDE,
   LAYER_OUTSIDE,
 } from '../../../geometry/index'
@@ -160,7 +161,8 @@ describe('template of a real plate', () => {
    * along each side, the grid is centred on it, and a sheet the outline does
    * not reach (by polygon-clipping) is left out.
    */
-  function printedByHand(outline: Point[]): number {
+  /** Every cell of the A4 grid, by hand (same figures as the writer's documentation: margin 6.35, overlap 12.7, 4 mm clear). */
+  function gridByHand(outline: Point[]): [number, number][][] {
     const margin = 6.35
     const overlap = 12.7
     const pad = 4
@@ -176,21 +178,43 @@ describe('template of a real plate', () => {
     const rows = Math.ceil((maxY - minY - overlap) / (ph - overlap))
     const left = (minX + maxX) / 2 - (cols * (pw - overlap) + overlap) / 2
     const top = (minY + maxY) / 2 + (rows * (ph - overlap) + overlap) / 2
-    const shape = [outline.map(([x, y]) => [x, y] as [number, number])]
-    let printed = 0
+    const cells: [number, number][][] = []
     for (let r = 0; r < rows; r++) {
       for (let c = 0; c < cols; c++) {
         const x0 = left + c * (pw - overlap)
         const y1 = top - r * (ph - overlap)
-        const cell: [number, number][] = [[x0, y1 - ph], [x0 + pw, y1 - ph], [x0 + pw, y1], [x0, y1]]
-        if (multiArea(polygonClipping.intersection(shape, [cell])) > 0) printed++
+        cells.push([[x0, y1 - ph], [x0 + pw, y1 - ph], [x0 + pw, y1], [x0, y1]])
       }
     }
-    return printed
+    return cells
   }
 
+  // What the printed set must be, checked with polygon-clipping rather than the tiler: every part of
+  // the plate on some printed sheet, and no printed sheet whose share of the plate the others all carry
+  // (a sheet holding only a sliver inside a neighbour's overlap is left out).
+  it.each(plates.map(({ id, plate }) => ({ id, plate })))('$id: the printed sheets cover the plate and none is redundant', ({ plate }) => {
+    const tiling = tilePlate(plate, { paper: 'a4', orientation: 'portrait' })
+    const cells = gridByHand(plate.outline)
+    expect(tiling.sheets).toHaveLength(cells.length)
+    const shape = [plate.outline.map(([x, y]) => [x, y] as [number, number])]
+    const printed = tiling.sheets.filter((s) => !s.empty).map((s) => [[s.window.minX, s.window.minY], [s.window.maxX, s.window.minY], [s.window.maxX, s.window.maxY], [s.window.minX, s.window.maxY]] as [number, number][])
+    // The windows are the hand grid's cells.
+    for (const s of tiling.sheets) {
+      const cell = cells[s.row * tiling.cols + s.col]!
+      expect(s.window.minX).toBeCloseTo(cell[0]![0], 6)
+      expect(s.window.maxY).toBeCloseTo(cell[2]![1], 6)
+    }
+    const uncovered = multiArea(polygonClipping.difference(shape, ...printed.map((w) => [w])))
+    expect(uncovered).toBeLessThan(1e-6)
+    printed.forEach((w, i) => {
+      const others = printed.filter((_, k) => k !== i).map((o) => [o])
+      const own = multiArea(polygonClipping.difference(polygonClipping.intersection(shape, [w]), ...others))
+      expect(own).toBeGreaterThan(0)
+    })
+  })
+
   it.each(plates.map(({ id, plate }) => ({ id, plate })))('$id: a cover and one page per sheet the plate reaches', async ({ plate }) => {
-    const expected = printedByHand(plate.outline)
+    const expected = tilePlate(plate, { paper: 'a4', orientation: 'portrait' }).printed
     expect(expected).toBeGreaterThan(1)
     const doc = await PDFDocument.load(await renderTemplatePdf(plate, { paper: 'a4', orientation: 'portrait', font, units: 'mm' }))
     expect(doc.getPageCount()).toBe(expected + 1)

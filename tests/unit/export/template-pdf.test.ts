@@ -95,8 +95,8 @@ describe('renderTemplatePdf sheets', () => {
   it('draws at exactly 1:1 and puts a point of the overlap where the tiling says, on both neighbours', () => {
     const { tiling } = planTemplate(plate, { paper: 'letter' })
     // A1 is left out, so A2 is page 2 and A3 page 3 (index 1 and 2).
-    const a2 = tiling.sheets.find((s) => s.label === 'A2')!
-    const a3 = tiling.sheets.find((s) => s.label === 'A3')!
+    const a2 = tiling.sheets.find((s) => s.label === 'R1-C2')!
+    const a3 = tiling.sheets.find((s) => s.label === 'R1-C3')!
     const m2 = bodyMatrix(pageStreams(doc, doc.getPage(1)))
     const m3 = bodyMatrix(pageStreams(doc, doc.getPage(2)))
     for (const m of [m2, m3]) {

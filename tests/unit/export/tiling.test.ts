@@ -45,27 +45,29 @@ describe('sheet count of a circular plate, computed by hand', () => {
     expect([t.cols, t.rows]).toEqual([7, 5])
     expect(t.printed).toBe(31)
     const empty = t.sheets.filter((s) => s.empty).map((s) => s.label)
-    expect(empty.sort()).toEqual(['A1', 'A7', 'E1', 'E7'])
+    expect(empty.sort()).toEqual(['R1-C1', 'R1-C7', 'R5-C1', 'R5-C7'])
     expect(t.grid.minX).toBeCloseTo(-673.1, 6)
     expect(t.grid.maxY).toBeCloseTo(641.35, 6)
   })
 
-  it('labels rows from the top with letters and columns from the left with numbers', () => {
+  it('names sheets by row from the top and column from the left (R2-C3), never like a paper size', () => {
     const t = tilePlate(plate, { paper: 'letter' })
-    const b2 = t.sheets.find((s) => s.label === 'B2')!
-    const a2 = t.sheets.find((s) => s.label === 'A2')!
+    const b2 = t.sheets.find((s) => s.label === 'R2-C2')!
+    const a2 = t.sheets.find((s) => s.label === 'R1-C2')!
     expect(b2.window.maxY).toBeLessThan(a2.window.maxY)
-    expect(b2.neighbours).toEqual({ above: 'A2', below: 'C2', left: 'B1', right: 'B3' })
+    expect(b2.neighbours).toEqual({ above: 'R1-C2', below: 'R3-C2', left: 'R2-C1', right: 'R2-C3' })
     // A left-out neighbour is not named.
     expect(a2.neighbours.left).toBeNull()
+    // ISO 216 and ASME Y14.1 paper names (A4, A3, B5 ...) are a letter and a digit: no sheet name may look like one.
+    for (const s of t.sheets) expect(s.label).not.toMatch(/^[A-E]\d+$/)
     expect(rowLabel(25)).toBe('Z')
     expect(rowLabel(26)).toBe('AA')
   })
 
   it('puts the same plate point in the overlap of two neighbours, one step apart on the pages', () => {
     const t = tilePlate(plate, { paper: 'letter' })
-    const a2 = t.sheets.find((s) => s.label === 'A2')!
-    const a3 = t.sheets.find((s) => s.label === 'A3')!
+    const a2 = t.sheets.find((s) => s.label === 'R1-C2')!
+    const a3 = t.sheets.find((s) => s.label === 'R1-C3')!
     // The overlap between columns 2 and 3 is x -292.1..-279.4 (12.7 mm, the default overlap).
     expect(a2.window.maxX - a3.window.minX).toBeCloseTo(12.7, 9)
     const p: Point = [-285.75, 500]
