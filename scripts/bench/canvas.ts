@@ -89,6 +89,10 @@ async function main() {
     console.log(`pointer moves sent ${moves}, measured ${perMove.length}; redraws ${redraws.length}`)
     console.log(`script time per move: median ${quantile(sorted, 0.5).toFixed(2)} ms, p95 ${p95.toFixed(2)} ms, worst ${sorted.at(-1)?.toFixed(2)} ms`)
     console.log(`  of which redraw: median ${quantile(redraws, 0.5).toFixed(2)} ms, p95 ${quantile(redraws, 0.95).toFixed(2)} ms`)
+    for (const part of ['paint', 'preview'] as const) {
+      const d = entries.filter(e => e.name === `rootplate:${part}`).map(e => e.duration).sort((a, b) => a - b)
+      console.log(`  ${part === 'paint' ? 'canvas painting (in the redraw)' : 'outline preview (in the move)'}: median ${quantile(d, 0.5).toFixed(2)} ms, p95 ${quantile(d, 0.95).toFixed(2)} ms (${d.length})`)
+    }
     console.log(`p95 / goal (${GOAL_P95} ms): ${(p95 / GOAL_P95).toFixed(2)}  ${p95 < GOAL_P95 ? 'within goal' : 'OVER goal'}`)
   }
   finally {
