@@ -173,7 +173,10 @@ export function drawDimensions(scope: Scope, layer: paper.Layer, plate: Plate, o
   layer.addChild(polyline(scope, [[right - px(5), minY], [right + px(5), minY]], false, style))
   layer.addChild(polyline(scope, [[right - px(5), maxY], [right + px(5), maxY]], false, style))
   const width = new scope.PointText({ point: pt(scope, (minX + maxX) / 2, below - px(16)), content: o.formatLength(maxX - minX), justification: 'center', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
-  const height = new scope.PointText({ point: pt(scope, right - px(8), (minY + maxY) / 2), content: o.formatLength(maxY - minY), justification: 'right', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
+  // Set upright in the gap between the plate and its dimension line: lying flat it ran over the plate's edge, and past the view's edge on a narrow screen.
+  const heightAt = pt(scope, right - px(6), (minY + maxY) / 2)
+  const height = new scope.PointText({ point: heightAt, content: o.formatLength(maxY - minY), justification: 'center', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
+  height.rotate(-90, heightAt)
   layer.addChild(width)
   layer.addChild(height)
 }
