@@ -1,5 +1,6 @@
 import { defineStore } from 'pinia'
 import { buildPlate, defaultParams, paramIssues, plateParamsSchema, type Plate, type PlateParams, type ParamIssue } from '~~/geometry/core'
+import { previewPlate } from '~~/geometry/preview'
 
 /** What is selected on the canvas or in the findings list. */
 export type Selection =
@@ -52,18 +53,38 @@ export const useEditorStore = defineStore('editor', () => {
   const conflict = ref<ConflictInfo | null>(null)
   const loadProblem = ref<string | null>(null)
 
+  // During a drag the whole plate (findings, figures) and everything shown from it stay at
+  // the drag's start; only the canvas follows the pointer, through `livePlate`.
+  const frozen = shallowRef<PlateParams | null>(null)
+  const settledParams = computed(() => frozen.value ?? params.value)
+  const dragging = computed(() => frozen.value !== null)
+
   // The last plate that could be built: a half-made value never blanks the canvas.
   let lastPlate: Plate | null = null
   const plate = computed<Plate>(() => {
     try {
-      lastPlate = buildPlate(params.value)
+      lastPlate = buildPlate(settledParams.value)
     }
     catch (err: unknown) {
       if (!lastPlate) throw err
     }
     return lastPlate!
   })
-  const issues = computed<ParamIssue[]>(() => paramIssues(params.value))
+  /** What the canvas draws: the whole plate, or while dragging the outline and holes of this pointer move. */
+  const livePlate = computed<Plate>(() => {
+    if (!frozen.value) return plate.value
+    try {
+      const started = performance.now()
+      const preview = previewPlate(params.value, plate.value)
+      // The geometry's share of a pointer move, printed by the canvas bench.
+      performance.measure('rootplate:preview', { start: started })
+      return preview
+    }
+    catch {
+      return plate.value
+    }
+  })
+  const issues = computed<ParamIssue[]>(() => paramIssues(settledParams.value))
   const dirty = computed(() => !same(params.value, saved.value))
   const canUndo = computed(() => past.value.length > 0)
   const canRedo = computed(() => future.value.length > 0)
@@ -74,6 +95,8 @@ export const useEditorStore = defineStore('editor', () => {
     designId.value = id
     base.value = { id: revision.id, number: revision.number }
     params.value = read.params
+    frozen.value = null
+    dragStart.value = null
     saved.value = clone(read.params)
     loadProblem.value = read.problem
     past.value = []
@@ -112,6 +135,7 @@ export const useEditorStore = defineStore('editor', () => {
 
   function beginDrag() {
     dragStart.value = clone(params.value)
+    frozen.value = params.value
   }
 
   /** Moves during a drag change the params without adding history steps. */
@@ -124,6 +148,7 @@ export const useEditorStore = defineStore('editor', () => {
   function endDrag() {
     const start = dragStart.value
     dragStart.value = null
+    frozen.value = null
     if (start && !same(start, params.value)) record(start)
   }
 
@@ -200,7 +225,7 @@ export const useEditorStore = defineStore('editor', () => {
 
   return {
     designId, base, params, saved, selection, saving, saveError, conflict, loadProblem,
-    plate, issues, dirty, canUndo, canRedo, errorCount,
+    plate, livePlate, settledParams, dragging, issues, dirty, canUndo, canRedo, errorCount,
     load, close, update, replace, beginDrag, dragTo, endDrag, undo, redo, select, save, saveOnTop, reloadLatest,
   }
 })

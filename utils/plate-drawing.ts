@@ -64,17 +64,39 @@ export function drawPlate(scope: Scope, layer: paper.Layer, plate: Plate, o: Dra
   const add = (item: paper.Item) => layer.addChild(item)
 
   if (o.ghost) {
+    // Drawn over the newer plate, fill and all, so a change inside the outline shows too:
+    // a pale halo under a dashed line of its own colour keeps it readable on wood and holes.
+    const halo = outlinePath(scope, plate)
+    Object.assign(halo, { strokeColor: '#ffffff', strokeWidth: 5, opacity: 0.7, strokeScaling: false })
+    add(halo)
     const ghost = outlinePath(scope, plate)
-    Object.assign(ghost, { strokeColor: plateColours.compare, strokeWidth: 2, dashArray: [8, 5], strokeScaling: false })
+    Object.assign(ghost, { strokeColor: plateColours.compare, strokeWidth: 2.5, dashArray: [8, 5], strokeScaling: false })
+    ghost.data = { compare: 'outline' }
     add(ghost)
-    for (const h of plate.holes) add(circle(scope, h.x, h.y, h.diameter / 2, { strokeColor: plateColours.compare, strokeWidth: 1, dashArray: [4, 3] }))
+    for (const h of plate.holes) add(circle(scope, h.x, h.y, h.diameter / 2, { strokeColor: plateColours.compare, strokeWidth: 2, dashArray: [4, 3] }))
+    for (const r of plate.rabbets) add(circle(scope, r.x, r.y, r.diameter / 2, { strokeColor: plateColours.compare, strokeWidth: 1, dashArray: [2, 3] }))
     return
   }
 
-  const outline = outlinePath(scope, plate)
-  Object.assign(outline, { fillColor: plateColours.fill, strokeColor: plateColours.outline, strokeWidth: 2.5, strokeScaling: false })
-  add(outline)
+  add(drawOutline(scope, plate))
+  drawFeatures(scope, layer, plate, o)
+  drawFindingMarks(scope, layer, plate, o)
+  drawDimensions(scope, layer, plate, o)
+}
 
+export const outlineStyle = { fillColor: plateColours.fill, strokeColor: plateColours.outline, strokeWidth: 2.5, strokeScaling: false }
+
+/** The cut line: the smooth path of a whole plate, or the polygon of a drag preview (empty path data). */
+export function drawOutline(scope: Scope, plate: Plate): paper.PathItem {
+  const item = plate.outlinePath ? outlinePath(scope, plate) : polyline(scope, plate.outline, true, {})
+  Object.assign(item, outlineStyle)
+  return item
+}
+
+/** Everything inside the outline: tube, rabbets, holes, fasteners, caster plates, notches and the clocking axis. */
+export function drawFeatures(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions): void {
+  const px = (n: number) => n / o.zoom
+  const add = (item: paper.Item) => layer.addChild(item)
   const { trunk } = plate
   add(circle(scope, trunk.x, trunk.y, trunk.diameter / 2, { strokeColor: plateColours.trunk, strokeWidth: 2, dashArray: [10, 4] }))
   add(circle(scope, trunk.x, trunk.y, trunk.innerDiameter / 2, { strokeColor: plateColours.trunk, strokeWidth: 1, dashArray: [3, 4] }))
@@ -116,15 +138,13 @@ export function drawPlate(scope: Scope, layer: paper.Layer, plate: Plate, o: Dra
     add(arc)
   }
   add(polyline(scope, [plate.axis.from, plate.axis.to], false, { strokeColor: plateColours.axis, strokeWidth: 1, dashArray: [12, 4, 2, 4] }))
-  drawFindingMarks(scope, layer, plate, o)
-  drawDimensions(scope, layer, plate, o)
 }
 
 /**
  * Every finding with a place gets a ring there, solid for an error and dashed
  * for a warning, so problems are seen where they are without opening the list.
  */
-function drawFindingMarks(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {
+export function drawFindingMarks(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {
   const px = (n: number) => n / o.zoom
   for (const f of plate.findings) {
     if (!f.at) continue
@@ -140,7 +160,7 @@ function drawFindingMarks(scope: Scope, layer: paper.Layer, plate: Plate, o: Dra
   }
 }
 
-function drawDimensions(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {
+export function drawDimensions(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {
   const px = (n: number) => n / o.zoom
   const { minX, minY, maxX, maxY } = plate.metrics.bounds
   const style = { strokeColor: plateColours.dim, strokeWidth: 1 }
@@ -153,7 +173,10 @@ function drawDimensions(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawO
   layer.addChild(polyline(scope, [[right - px(5), minY], [right + px(5), minY]], false, style))
   layer.addChild(polyline(scope, [[right - px(5), maxY], [right + px(5), maxY]], false, style))
   const width = new scope.PointText({ point: pt(scope, (minX + maxX) / 2, below - px(16)), content: o.formatLength(maxX - minX), justification: 'center', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
-  const height = new scope.PointText({ point: pt(scope, right - px(8), (minY + maxY) / 2), content: o.formatLength(maxY - minY), justification: 'right', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
+  // Set upright in the gap between the plate and its dimension line: lying flat it ran over the plate's edge, and past the view's edge on a narrow screen.
+  const heightAt = pt(scope, right - px(6), (minY + maxY) / 2)
+  const height = new scope.PointText({ point: heightAt, content: o.formatLength(maxY - minY), justification: 'center', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
+  height.rotate(-90, heightAt)
   layer.addChild(width)
   layer.addChild(height)
 }
@@ -164,17 +187,16 @@ export function drawGrid(scope: Scope, layer: paper.Layer, units: 'in' | 'mm', z
   const minor = units === 'in' ? 25.4 : 10
   const major = units === 'in' ? 304.8 : 100
   const steps = minor * zoom >= 8 ? [minor, major] : [major]
+  // One compound path per colour: a few draw calls instead of one per line.
   for (const step of steps) {
     const colour = step === major ? plateColours.gridMajor : plateColours.grid
     const x0 = Math.floor(bounds.left / step) * step
     const y0 = Math.floor(bounds.top / step) * step
-    for (let x = x0; x <= bounds.right; x += step) {
-      const l = new scope.Path.Line({ from: [x, bounds.top], to: [x, bounds.bottom], strokeColor: colour, strokeWidth: 1, strokeScaling: false, insert: false })
-      layer.addChild(l)
-    }
-    for (let y = y0; y <= bounds.bottom; y += step) {
-      const l = new scope.Path.Line({ from: [bounds.left, y], to: [bounds.right, y], strokeColor: colour, strokeWidth: 1, strokeScaling: false, insert: false })
-      layer.addChild(l)
-    }
+    const lines: paper.Path[] = []
+    for (let x = x0; x <= bounds.right; x += step) lines.push(new scope.Path({ segments: [[x, bounds.top], [x, bounds.bottom]], insert: false }))
+    for (let y = y0; y <= bounds.bottom; y += step) lines.push(new scope.Path({ segments: [[bounds.left, y], [bounds.right, y]], insert: false }))
+    const grid = new scope.CompoundPath({ children: lines, insert: false })
+    Object.assign(grid, { strokeColor: colour, strokeWidth: 1, strokeScaling: false })
+    layer.addChild(grid)
   }
 }

@@ -1,6 +1,8 @@
 // What dragging or nudging a canvas handle does to the params. Pure: takes a
 // draft of the params and the plate built from them, changes the draft.
 import type { Plate, PlateParams } from '~~/geometry/core'
+import { plateOutlineShape } from '../geometry/plate'
+import { nominalAngle } from '../geometry/roots'
 
 export type HandleKind = 'lobe' | 'pocket'
 export type HandleTarget = { kind: HandleKind; index: number }
@@ -25,13 +27,20 @@ export function moveLobeTip(draft: PlateParams, plate: Plate, index: number, poi
   const radius = Math.hypot(point.x, point.y)
   const angle = deg(Math.atan2(point.y, point.x))
   let o = draft.lobes.overrides.find(v => v.index === index)
-  if (!o) {
-    o = { index }
-    draft.lobes.overrides.push(o)
+  if (o?.reach === undefined || o.angle === undefined) {
+    // A lobe not yet pulled starts from the reach and the angle its irregularity gave it:
+    // starting from the plain values made the first nudge jump the tip sideways.
+    const lobe = plateOutlineShape(draft).lobes.find(l => l.index === index)
+    if (!o) {
+      o = { index }
+      draft.lobes.overrides.push(o)
+    }
+    if (lobe) {
+      o.reach ??= lobe.reach
+      o.angle ??= fold(deg(lobe.angle) - nominalAngle(draft, index))
+    }
   }
-  const valleyRadius = draft.tubeDiameter / 2 + draft.lobes.valley
-  const reach = o.reach ?? Math.max(0, tip.radius - valleyRadius)
-  o.reach = Math.round(clamp(reach + (radius - tip.radius), 0, 900) * 10) / 10
+  o.reach = Math.round(clamp((o.reach ?? 0) + (radius - tip.radius), 0, 900) * 10) / 10
   if (radius > 1) o.angle = Math.round(clamp(fold((o.angle ?? 0) + fold(angle - tip.angle)), -180, 180) * 10) / 10
 }
 

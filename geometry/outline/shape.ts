@@ -36,6 +36,8 @@ export interface LobeShape {
   halfWidth: number
   /** mm beyond the valley line. */
   reach: number
+  /** The width asked for where the lobe leaves the valley line, mm (an arc length); halfWidth may be wider, to let the cutter round the crotch. */
+  width: number
 }
 
 export interface OutlineOptions {
@@ -147,7 +149,7 @@ export function outlineShape(params: PlateParams, clearances: readonly Circle[],
     const footRadius = baseRadius - wobbleDepth
     const leastHalf = cutterRadius > 0 ? Math.sqrt(Math.max(0, lobeReach) * curl * CROTCH_FACTOR * cutterRadius) / footRadius : 0
     const halfWidth = Math.min(Math.max(lobeWidth / (2 * baseRadius), leastHalf), 0.98 * Math.PI)
-    lobes.push({ index: k, angle, halfWidth, reach: lobeReach })
+    lobes.push({ index: k, angle, halfWidth, reach: lobeReach, width: lobeWidth })
   }
   // Lobes shorter than a micrometre change nothing visible; dropping them keeps
   // the sampling coarse and keeps denormal numbers (slow on every CPU) out of the sums.

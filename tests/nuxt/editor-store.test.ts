@@ -62,7 +62,9 @@ describe('editor store: undo and redo', () => {
     const tip = store.plate.lobeTips[1]!
     const target = { x: tip.x * 1.3, y: tip.y * 1.3 }
     store.beginDrag()
-    for (let i = 0; i < 6; i++) store.dragTo((d) => { moveLobeTip(d, store.plate, 1, target) })
+    // During a drag the canvas, and the handle maths, follow the light preview; the whole plate waits for the end.
+    for (let i = 0; i < 6; i++) store.dragTo((d) => { moveLobeTip(d, store.livePlate, 1, target) })
+    expect(store.plate.lobeTips[1]).toEqual(tip)
     store.endDrag()
     const moved = store.plate.lobeTips.find(t => t.index === 1)!
     expect(store.params.lobes.overrides.some(o => o.index === 1)).toBe(true)
