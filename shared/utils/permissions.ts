@@ -4,7 +4,7 @@ export const roles = ['lead', 'designer', 'builder', 'viewer'] as const
 export type ShopRole = (typeof roles)[number]
 
 export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view' | 'design:share' | 'shop:activity'
-  | 'attachment:add' | 'unit:view' | 'unit:edit'
+  | 'attachment:add' | 'unit:view' | 'unit:edit' | 'show:manage'
 
 const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'design:view': roles,
@@ -18,6 +18,8 @@ const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'unit:edit': ['lead', 'designer', 'builder'],
   'design:share': ['lead', 'designer'],
   'shop:activity': ['lead'],
+  // Shows are planned by the people who make the designs for them.
+  'show:manage': ['lead', 'designer'],
 }
 
 export function can(role: ShopRole | undefined | null, action: ShopAction): boolean {
