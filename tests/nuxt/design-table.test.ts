@@ -8,9 +8,10 @@ describe('shop home table', () => {
     const wrapper = await mountSuspended(DesignTable, {
       props: {
         designs: [
-          { id: '11111111-1111-4111-8111-111111111111', name: 'Birch', sizeLabel: 'S', show: null, latestRevision: 4, updatedAt: '2026-11-02T15:00:00.000Z', author: 'Ana' },
-          { id: '22222222-2222-4222-8222-222222222222', name: 'Elm', sizeLabel: null, show: null, latestRevision: 1, updatedAt: '2026-11-03T15:00:00.000Z', author: null },
+          { id: '11111111-1111-4111-8111-111111111111', name: 'Birch', sizeLabel: 'S', show: null, latestRevision: 4, updatedAt: '2026-11-02T15:00:00.000Z', author: 'Ana', quantity: 1, archivedAt: null, parentDesignId: null, tubeDiameter: 406.4 },
+          { id: '22222222-2222-4222-8222-222222222222', name: 'Elm', sizeLabel: null, show: null, latestRevision: 1, updatedAt: '2026-11-03T15:00:00.000Z', author: null, quantity: 1, archivedAt: '2026-11-04T15:00:00.000Z', parentDesignId: null, tubeDiameter: null },
         ],
+        canRestore: true,
       },
     })
     const rows = wrapper.findAll('tbody tr')
@@ -19,6 +20,13 @@ describe('shop home table', () => {
     expect(rows[0]!.text()).toContain('r4')
     expect(rows[0]!.text()).toContain('Ana')
     expect(rows[1]!.text()).toContain('—')
+    // The tube from the latest revision stands beside the label: 406.4 mm is 16 in exactly.
+    expect(rows[0]!.text()).toMatch(/S\s*·\s*(16(\s?in|")|406\.4\s?mm)\s*tube/)
+    // Only the archived design offers to come back.
+    expect(rows[0]!.text()).not.toContain('Restore')
+    expect(rows[1]!.text()).toContain('archived')
+    await rows[1]!.find('button').trigger('click')
+    expect(wrapper.emitted('restore')).toEqual([['22222222-2222-4222-8222-222222222222']])
     expect(rows[0]!.find('a').attributes('href')).toBe('/designs/11111111-1111-4111-8111-111111111111')
   })
 })
