@@ -105,12 +105,16 @@ export type MakeSizesResult =
 
 /**
  * A design per size, derived from the parent's latest revision for its tube
- * (deriveForTube: hardware keeps its size, the look follows the trunk). Sizes
- * join the parent's show; all are made in one transaction or none.
+ * (deriveForTube: hardware keeps its size, the look follows the trunk). Asked
+ * of a size, the sizes are made from its parent. Sizes join the parent's show;
+ * all are made in one transaction or none.
  */
-export async function makeSizes(db: Database, actor: Actor, parentId: string, sizes: NewSize[]): Promise<MakeSizesResult> {
-  const parent = await member(db, actor.shopId, parentId)
-  if (!parent) return { ok: false, reason: 'not-found' }
+export async function makeSizes(db: Database, actor: Actor, designId: string, sizes: NewSize[]): Promise<MakeSizesResult> {
+  const start = await member(db, actor.shopId, designId)
+  if (!start) return { ok: false, reason: 'not-found' }
+  // Sizes asked for from a size join its family: every size follows the one parent, never a chain.
+  const parent = (start.parentDesignId ? await member(db, actor.shopId, start.parentDesignId) : null) ?? start
+  const parentId = parent.id
   const parentParams = readStored(parent.latest.params)
   if (!parentParams) return { ok: false, reason: 'unreadable' }
   const row = await db.query.designs.findFirst({ columns: { showId: true }, where: eq(designs.id, parentId) })

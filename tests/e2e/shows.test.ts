@@ -165,6 +165,14 @@ describe('size families', () => {
     expect(family.body.parent.id).toBe(parent.id)
     expect(family.body.sizes.map((s: { sizeLabel: string; behind: boolean }) => [s.sizeLabel, s.behind])).toEqual([['Medium', false], ['Large', false]])
     expect((await api(`/api/designs/${parent.id}/family`, { cookie: other })).status).toBe(404)
+
+    // Asked of a size, a new size is made from (and follows) the family's parent: no chains.
+    const more = await api(`/api/designs/${made.body[0].id}/sizes`, { method: 'POST', cookie: cookie.lead, body: { sizes: [{ label: 'Small', tubeDiameter: 14 * INCH }] } })
+    expect(more.status).toBe(201)
+    expect((await api(`/api/designs/${more.body[0].id}`, { cookie: cookie.viewer })).body.parentDesignId).toBe(parent.id)
+    const grown = (await api(`/api/designs/${parent.id}/family`, { cookie: cookie.viewer })).body
+    // Smallest tube first.
+    expect(grown.sizes.map((s: { sizeLabel: string }) => s.sizeLabel)).toEqual(['Small', 'Medium', 'Large'])
   })
 
   it('reports sizes behind after the parent changes and brings the accepted ones up to date', async () => {

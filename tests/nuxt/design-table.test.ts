@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { mountSuspended } from '@nuxt/test-utils/runtime'
 import DesignTable from '~/components/shop/DesignTable.vue'
 import RevisionList from '~/components/design/RevisionList.vue'
+import { sizeText } from '~/utils/size-label'
 
 describe('shop home table', () => {
   it('shows name, size label, latest revision, author and a link per design', async () => {
@@ -53,5 +54,17 @@ describe('revision history', () => {
   it('says so when there are no revisions', async () => {
     const wrapper = await mountSuspended(RevisionList, { props: { current: 0, loading: false, revisions: [] } })
     expect(wrapper.text()).toContain('No revisions yet')
+  })
+})
+
+describe('the size shown for a design', () => {
+  const fmt = (mm: number) => `${Math.round((mm / 25.4) * 16) / 16} in`
+  it('puts the tube of the latest revision beside the label, and never repeats or trusts a length in the label', () => {
+    // Tubes by hand: 12 in = 304.8 mm, 16 in = 406.4 mm, 20 in = 508 mm.
+    expect(sizeText('Medium', 406.4, fmt)).toEqual({ label: 'Medium', tube: '16 in tube', mismatch: false })
+    expect(sizeText('Medium · 16 in tube', 406.4, fmt)).toEqual({ label: 'Medium · 16 in tube', tube: null, mismatch: false })
+    expect(sizeText('20"', 304.8, fmt)).toEqual({ label: '20"', tube: '12 in tube', mismatch: true })
+    expect(sizeText('Large 500 mm', 508, fmt)).toEqual({ label: 'Large 500 mm', tube: null, mismatch: false })
+    expect(sizeText(null, null, fmt)).toEqual({ label: null, tube: null, mismatch: false })
   })
 })
