@@ -91,3 +91,15 @@ describe('a size whose tube is too slim to hide its pans', () => {
     expect(plate.metrics.tubeBearing).toBeGreaterThanOrEqual(0.25)
   })
 })
+
+describe('every starting shape on every tube the field takes', () => {
+  it('derives a plate with no error from 4 to 49 in (every 3 in)', () => {
+    for (const id of Object.keys(FAMILIES)) {
+      const parent = presetParams(id)!
+      for (let inches = 4; inches <= 49; inches += 3) {
+        const errors = buildPlate(deriveForTube(parent, inches * INCH)).findings.filter((f) => f.severity === 'error').map((f) => f.code)
+        expect(errors, `${id} on ${inches} in`).toEqual([])
+      }
+    }
+  }, 60_000)
+})
