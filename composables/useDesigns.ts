@@ -10,8 +10,13 @@ export function useDesigns() {
   return useFetch<DesignRow[]>('/api/designs', { key: 'designs', default: () => [] })
 }
 
-export function useShows() {
-  return useFetch<{ id: string; name: string; venue: string | null; opensOn: string | null }[]>('/api/shows', { key: 'shows', default: () => [] })
+/** The design list as searched and filtered on the home page. */
+export function useDesignSearch(filter: MaybeRefOrGetter<{ q: string; show: string; archived: 'hide' | 'only' }>) {
+  const query = computed(() => {
+    const f = toValue(filter)
+    return { ...(f.q.trim() ? { q: f.q.trim() } : {}), ...(f.show ? { show: f.show } : {}), archived: f.archived }
+  })
+  return useFetch<DesignRow[]>('/api/designs', { key: 'designs', query, default: () => [] })
 }
 
 export function useDesign(id: MaybeRefOrGetter<string>) {

@@ -4,8 +4,10 @@
 // is too slim for any pan that clears its caster, and which says so.
 
 import { minCasterOffset, plateParamsSchema, type PlateParams, type PlateParamsInput } from './params'
-import { placeAccess, placeCasters } from './features/placement'
-import { snapToHoleSaw } from './features/holes'
+import { panRadius, placeAccess, placeCasters } from './features/placement'
+import { casterAngle, snapToHoleSaw } from './features/holes'
+import { tubeBearing, tubeNotches } from './features/casters'
+import { TUBE_BEARING } from './checks/pans'
 
 export interface Preset {
   id: string
@@ -119,7 +121,9 @@ export function deriveForTube(params: PlateParams, newTubeDiameter: number): Pla
   }
   // A tube wall thicker than the new tube allows is the one rule scaling can break.
   if (candidate.tubeWall * 2 >= tube) candidate.tubeWall = Math.max(1, tube / 4)
-  candidate.casterOffset = Math.max(placeCasters(candidate).offset, Math.ceil(minCasterOffset(params) * 1000) / 1000)
+  const placement = placeCasters(candidate)
+  candidate.casterOffset = Math.max(placement.offset, Math.ceil(minCasterOffset(params) * 1000) / 1000)
+  if (!placement.hidden) candidate.casterOffset = standingOffset(candidate)
   if (candidate.access.enabled) {
     const diameter = candidate.access.snapToHoleSaw ? snapToHoleSaw(candidate.access.diameter) : candidate.access.diameter
     const offset = placeAccess(candidate, candidate.casterOffset, diameter)
@@ -129,4 +133,29 @@ export function deriveForTube(params: PlateParams, newTubeDiameter: number): Pla
     else candidate.access.enabled = false
   }
   return plateParamsSchema.parse(candidate)
+}
+
+/** The tube's share of foot on wood with the pans at this offset (the same notches the plate cuts). */
+function bearingAt(p: PlateParams, offset: number): number {
+  const diameter = p.pocketDiameter + 2 * p.rabbetWidth
+  const rabbets = Array.from({ length: p.casterCount }, (_, k) => {
+    const a = (casterAngle(p, k) * Math.PI) / 180
+    return { pocketId: String(k), x: offset * Math.cos(a), y: offset * Math.sin(a), diameter }
+  })
+  return tubeBearing(tubeNotches(p, rabbets))
+}
+
+/**
+ * When the pans cannot hide (too many or too large for the tube), the least
+ * offset can leave the tube standing on almost nothing: each notch over a pan
+ * eats its foot. Then the pans move out, 0.5 mm at a time, until the foot
+ * bears at least the error limit (at the latest once the rabbets clear the
+ * tube's outside wall, where no notch is needed), so the size shows its pans
+ * but stays buildable.
+ */
+function standingOffset(p: PlateParams): number {
+  const clear = p.tubeDiameter / 2 + panRadius(p)
+  let offset = p.casterOffset
+  while (offset < clear && bearingAt(p, offset) < TUBE_BEARING.error) offset += 0.5
+  return Math.min(1500, offset)
 }

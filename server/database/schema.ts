@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm'
 import {
   pgTable, pgEnum, uuid, text, integer, bigint, doublePrecision, jsonb, timestamp, date, index, uniqueIndex, check,
+  type AnyPgColumn,
 } from 'drizzle-orm/pg-core'
 
 export const roleEnum = pgEnum('member_role', ['lead', 'designer', 'builder', 'viewer'])
@@ -48,6 +49,8 @@ export const shows = pgTable('shows', {
   name: text('name').notNull(),
   venue: text('venue'),
   opensOn: date('opens_on'),
+  // Archived shows drop out of the lists but keep their designs and history.
+  archivedAt: timestamp('archived_at', { withTimezone: true }),
   ...timestamps,
 }, t => [
   index('shows_shop_idx').on(t.shopId),
@@ -63,10 +66,21 @@ export const designs = pgTable('designs', {
   // serialises racing saves (see services/designs.ts).
   latestRevision: integer('latest_revision').notNull().default(0),
   createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  // How many of this plate its show needs.
+  quantity: integer('quantity').notNull().default(1),
+  // Archived designs leave the lists; they are never deleted with their history.
+  archivedAt: timestamp('archived_at', { withTimezone: true }),
+  // A size of a family: the design it was derived from, and which revision of
+  // it this size last followed (what "behind" is measured against). Both null
+  // for a design of its own, and again once a size is detached.
+  parentDesignId: uuid('parent_design_id').references((): AnyPgColumn => designs.id, { onDelete: 'set null' }),
+  parentRevisionId: uuid('parent_revision_id').references((): AnyPgColumn => revisions.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [
   index('designs_shop_idx').on(t.shopId),
   index('designs_show_idx').on(t.showId),
+  index('designs_parent_idx').on(t.parentDesignId),
+  check('designs_quantity_range', sql`${t.quantity} between 0 and 999`),
 ])
 
 // Immutable: no updated_at, and a trigger in the migrations refuses updates.

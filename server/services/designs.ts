@@ -1,4 +1,4 @@
-import { and, desc, eq, sql } from 'drizzle-orm'
+import { and, desc, eq, ilike, isNotNull, isNull, or, sql } from 'drizzle-orm'
 import type { Database } from '../utils/db'
 import { activity, designs, revisions, shows, users } from '../database/schema'
 
@@ -25,13 +25,32 @@ export interface DesignListItem {
   latestRevision: number
   updatedAt: Date
   author: string | null
+  quantity: number
+  archivedAt: Date | null
+  parentDesignId: string | null
+  /** The latest revision's tube, so a size label can never be the only word on the size. */
+  tubeDiameter: number | null
 }
+
+export interface DesignFilter {
+  /** Words to find in the name, the size label or the show's name. */
+  q?: string
+  /** A show's id, or 'none' for designs in no show. */
+  show?: string
+  archived?: 'hide' | 'only' | 'all'
+}
+
+/** `%` and `_` typed into a search box are letters, not wildcards. */
+const likeText = (s: string) => `%${s.replace(/[\\%_]/g, c => `\\${c}`)}%`
 
 export interface DesignDetail {
   id: string
   name: string
   sizeLabel: string | null
   show: { id: string; name: string } | null
+  quantity: number
+  archivedAt: Date | null
+  parentDesignId: string | null
   createdAt: Date
   updatedAt: Date
   latest: RevisionDetail
@@ -53,8 +72,10 @@ function summary(row: RevisionRow): RevisionSummary {
   return { id: row.id, number: row.number, note: row.note, createdAt: row.createdAt, author: { id: row.authorId, name: row.authorName } }
 }
 
-/** Designs of one shop with the author of their latest revision, newest first. */
-export async function listDesigns(db: Database, shopId: string): Promise<DesignListItem[]> {
+/** Designs of one shop with the author of their latest revision, newest first; archived ones only when asked. */
+export async function listDesigns(db: Database, shopId: string, filter: DesignFilter = {}): Promise<DesignListItem[]> {
+  const archived = filter.archived ?? 'hide'
+  const words = (filter.q ?? '').split(/\s+/).filter(Boolean)
   const rows = await db.select({
     id: designs.id,
     name: designs.name,
@@ -64,11 +85,20 @@ export async function listDesigns(db: Database, shopId: string): Promise<DesignL
     latestRevision: designs.latestRevision,
     updatedAt: designs.updatedAt,
     author: users.name,
+    quantity: designs.quantity,
+    archivedAt: designs.archivedAt,
+    parentDesignId: designs.parentDesignId,
+    tubeDiameter: sql<number | null>`(${revisions.params}->>'tubeDiameter')::float8`,
   }).from(designs)
     .leftJoin(shows, eq(shows.id, designs.showId))
     .leftJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
     .leftJoin(users, eq(users.id, revisions.authorId))
-    .where(eq(designs.shopId, shopId))
+    .where(and(
+      eq(designs.shopId, shopId),
+      archived === 'hide' ? isNull(designs.archivedAt) : archived === 'only' ? isNotNull(designs.archivedAt) : undefined,
+      filter.show === 'none' ? isNull(designs.showId) : filter.show ? eq(designs.showId, filter.show) : undefined,
+      ...words.map(w => or(ilike(designs.name, likeText(w)), ilike(designs.sizeLabel, likeText(w)), ilike(shows.name, likeText(w)))),
+    ))
     .orderBy(desc(designs.updatedAt), designs.name)
   return rows.map(r => ({
     id: r.id,
@@ -78,12 +108,11 @@ export async function listDesigns(db: Database, shopId: string): Promise<DesignL
     latestRevision: r.latestRevision,
     updatedAt: r.updatedAt,
     author: r.author,
+    quantity: r.quantity,
+    archivedAt: r.archivedAt,
+    parentDesignId: r.parentDesignId,
+    tubeDiameter: r.tubeDiameter,
   }))
-}
-
-export async function listShows(db: Database, shopId: string) {
-  return db.select({ id: shows.id, name: shows.name, venue: shows.venue, opensOn: shows.opensOn })
-    .from(shows).where(eq(shows.shopId, shopId)).orderBy(shows.name)
 }
 
 // Hot statements, built once per database and prepared on each connection:
@@ -97,6 +126,9 @@ function prepareGetDesign(db: Database) {
     sizeLabel: designs.sizeLabel,
     showId: shows.id,
     showName: shows.name,
+    quantity: designs.quantity,
+    archivedAt: designs.archivedAt,
+    parentDesignId: designs.parentDesignId,
     createdAt: designs.createdAt,
     updatedAt: designs.updatedAt,
     latest: { ...revisionColumns, params: revisions.params },
@@ -122,6 +154,9 @@ export async function getDesign(db: Database, shopId: string, designId: string):
     name: row.name,
     sizeLabel: row.sizeLabel,
     show: row.showId && row.showName ? { id: row.showId, name: row.showName } : null,
+    quantity: row.quantity,
+    archivedAt: row.archivedAt,
+    parentDesignId: row.parentDesignId,
     createdAt: row.createdAt,
     updatedAt: row.updatedAt,
     latest: { ...summary(row.latest), designId: row.latest.designId, params: row.latest.params },

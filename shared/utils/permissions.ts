@@ -4,7 +4,7 @@ export const roles = ['lead', 'designer', 'builder', 'viewer'] as const
 export type ShopRole = (typeof roles)[number]
 
 export type ShopAction = 'design:edit' | 'design:create' | 'shop:members' | 'design:view' | 'design:share' | 'shop:activity'
-  | 'attachment:add' | 'unit:view' | 'unit:edit' | 'revision:comment'
+  | 'attachment:add' | 'unit:view' | 'unit:edit' | 'revision:comment' | 'show:manage'
 
 const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'design:view': roles,
@@ -20,6 +20,8 @@ const allowed: Record<ShopAction, readonly ShopRole[]> = {
   'shop:activity': ['lead'],
   // A note on a revision: anyone in the shop, builders and viewers included.
   'revision:comment': roles,
+  // Shows are planned by the people who make the designs for them.
+  'show:manage': ['lead', 'designer'],
 }
 
 export function can(role: ShopRole | undefined | null, action: ShopAction): boolean {

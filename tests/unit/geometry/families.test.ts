@@ -1,0 +1,105 @@
+// Size families: one shape on a small, a medium and a large measured tube.
+// Every expected value below is worked by hand from trade sizes, not read from
+// the code under test:
+//  - Form tubes are sold by their inside diameter in whole inches; the sizes
+//    used here are 14, 16, 18, 20, 24 and 30 in (355.6 ... 762 mm).
+//  - The default pan is a 4-1/4 in pocket with a 1/2 in rabbet round it, so a
+//    pan and its rim reach R = 4.25 / 2 + 0.5 in = 66.675 mm from the pocket centre.
+//  - A pan is hidden when its rim stays inside the tube's outside wall, here
+//    with a 1.5 mm tuck (our common practice, from memory) and the offset
+//    rounded down to 1/2 mm: offset = floor(2 (D / 2 - 66.675 - 1.5)) / 2.
+//  - The look scales with the trunk: a lobe's reach, width and valley grow by
+//    the ratio of the tube diameters, so a tip stands beyond the wall by the
+//    parent's distance times that ratio.
+import { describe, expect, it } from 'vitest'
+import { buildPlate } from '../../../geometry/plate'
+import { deriveForTube, presetParams } from '../../../geometry/presets'
+
+const INCH = 25.4
+
+/** Small, medium and large tubes (in) per starting shape, each with room to hide its pans (see below). */
+const FAMILIES: Record<string, [number, number, number]> = {
+  'gnarled-oak': [14, 18, 24],
+  'slim-birch': [14, 16, 20],
+  'banyan-sprawl': [18, 24, 30],
+  'river-stone': [14, 18, 24],
+  'plain-column': [14, 18, 24],
+}
+
+/** By hand: the hidden offset for the default pan on a D mm tube (see the header). */
+const handOffset = (D: number) => Math.floor(2 * (D / 2 - 66.675 - 1.5)) / 2
+
+describe('hand values of the family sizes', () => {
+  it('work out as the header says', () => {
+    // 14 in: 177.8 - 68.175 = 109.625 -> 109.5; 18 in: 228.6 - 68.175 = 160.425 -> 160; 24 in: 304.8 - 68.175 = 236.625 -> 236.5
+    expect(handOffset(14 * INCH)).toBe(109.5)
+    expect(handOffset(18 * INCH)).toBe(160)
+    expect(handOffset(24 * INCH)).toBe(236.5)
+  })
+})
+
+describe.each(Object.entries(FAMILIES))('a family of %s', (id, tubes) => {
+  const parent = presetParams(id)!
+  const parentPlate = buildPlate(parent)
+
+  it.each(tubes.map((t, i) => [['small', 'medium', 'large'][i]!, t] as const))('%s on a %s in tube', (_size, inches) => {
+    const D = inches * INCH
+    const s = D / parent.tubeDiameter
+    const size = deriveForTube(parent, D)
+    const plate = buildPlate(size)
+
+    // Hardware keeps its real size.
+    expect(size.pocketDiameter).toBe(107.95)
+    expect(size.rabbetWidth).toBe(12.7)
+    for (const key of ['pocketDiameter', 'rabbetWidth', 'rabbetDepth', 'panDepth', 'caster', 'fasteners', 'casterCount', 'centreHoleDiameter', 'indexHoleDiameter', 'minWood', 'layers', 'sheetThickness', 'cutting'] as const) {
+      expect(size[key], key).toEqual(parent[key])
+    }
+    const holeSizes = (p: typeof plate, kind: string) => [...new Set(p.holes.filter((h) => h.kind === kind).map((h) => h.diameter))]
+    for (const kind of ['pocket', 'centre', 'index']) expect(holeSizes(plate, kind), kind).toEqual(holeSizes(parentPlate, kind))
+
+    // The trunk is the new tube, and the lobes follow it.
+    expect(size.tubeDiameter).toBeCloseTo(D, 3)
+    expect(size.lobes.reach).toBeCloseTo(parent.lobes.reach * s, 2)
+    expect(size.lobes.width).toBeCloseTo(parent.lobes.width * s, 2)
+    expect(size.lobes.valley).toBeCloseTo(parent.lobes.valley * s, 2)
+    expect(plate.lobeTips.length).toBe(parent.lobes.count)
+    plate.lobeTips.forEach((tip, i) => {
+      const before = parentPlate.lobeTips[i]!
+      expect(tip.angle).toBeCloseTo(before.angle, 6)
+      expect(tip.radius - D / 2).toBeCloseTo((before.radius - parent.tubeDiameter / 2) * s, 0)
+    })
+
+    // Pans hidden: the offset is the hand value, so each rim is 1.5 to 2 mm inside the outside wall.
+    expect(size.casterOffset).toBe(handOffset(D))
+    expect(plate.findings.map((f) => f.code)).not.toContain('pan-visible')
+    expect(plate.findings.filter((f) => f.severity === 'error')).toEqual([])
+    expect(plate.holes.filter((h) => h.kind === 'index').length).toBeGreaterThanOrEqual(1)
+  })
+})
+
+describe('a size whose tube is too slim to hide its pans', () => {
+  it('keeps the tube standing: six pans on a 10 in tube move out until the foot is no error', () => {
+    // By hand: six pans need (2 R + minWood) / (2 sin 30 deg) = (133.35 + 19.05) / 1 = 152.4 mm of offset to clear
+    // each other, but hide only within 127 - 66.675 - 1.5 = 58.8 mm: they must show.
+    const banyan = presetParams('banyan-sprawl')!
+    const size = deriveForTube(banyan, 10 * INCH)
+    const plate = buildPlate(size)
+    expect(size.casterOffset).toBeGreaterThanOrEqual(152.4)
+    expect(plate.findings.map((f) => f.code)).toContain('pan-visible')
+    expect(plate.findings.filter((f) => f.severity === 'error')).toEqual([])
+    // The error limit is a quarter of the foot (engineering judgement, from memory; see checks/pans.ts).
+    expect(plate.metrics.tubeBearing).toBeGreaterThanOrEqual(0.25)
+  })
+})
+
+describe('every starting shape on every tube the field takes', () => {
+  it('derives a plate with no error from 4 to 49 in (every 3 in)', () => {
+    for (const id of Object.keys(FAMILIES)) {
+      const parent = presetParams(id)!
+      for (let inches = 4; inches <= 49; inches += 3) {
+        const errors = buildPlate(deriveForTube(parent, inches * INCH)).findings.filter((f) => f.severity === 'error').map((f) => f.code)
+        expect(errors, `${id} on ${inches} in`).toEqual([])
+      }
+    }
+  }, 60_000)
+})
