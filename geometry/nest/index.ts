@@ -1,0 +1,30 @@
+// Nesting plates on plywood sheets: the shape nester (nestParts, the fixed
+// name) and the sheet plan built on it. The layout PDF and DXF writers live in
+// ./layout-pdf and ./layout-dxf (they bring pdf-lib and dxf-writer).
+export {
+  nestParts,
+  nestWithState,
+  PartTooLargeError,
+  NestTimeoutError,
+  type NestPartInput,
+  type NestSheetInput,
+  type NestOptions,
+  type PlacedPart,
+  type NestedSheet,
+  type NestResult,
+  type Nesting,
+} from './nest'
+export {
+  planSheets,
+  PlatePlanTooLargeError,
+  WORKFLOWS,
+  DEFAULT_GLUE_FILM,
+  type Workflow,
+  type PartLayer,
+  type PlanEntry,
+  type PlanSheet,
+  type PlanSettings,
+  type PlanPart,
+  type PlanLayout,
+  type SheetPlan,
+} from './plan'
