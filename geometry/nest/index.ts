@@ -1,6 +1,7 @@
 // Nesting plates on plywood sheets: the shape nester (nestParts, the fixed
 // name) and the sheet plan built on it. The layout PDF and DXF writers live in
-// ./layout-pdf and ./layout-dxf (they bring pdf-lib and dxf-writer).
+// ./layout-pdf and ./layout-dxf (pdf-lib and dxf-writer; import ./nest or ./plan
+// directly where those are not wanted).
 export {
   nestParts,
   nestWithState,
@@ -28,3 +29,5 @@ export {
   type PlanLayout,
   type SheetPlan,
 } from './plan'
+export { renderLayoutDxf, LAYER_SHEET, type LayoutDxfOptions } from './layout-dxf'
+export { renderLayoutPdf, partLabel, type LayoutPdfOptions } from './layout-pdf'

@@ -101,7 +101,7 @@ export interface SheetPlan {
 
 /** A plate too big for the sheet, named by its plan entry. */
 export class PlatePlanTooLargeError extends Error {
-  constructor(readonly entry: number, readonly cause: PartTooLargeError) {
+  constructor(readonly entry: number, override readonly cause: PartTooLargeError) {
     super(cause.message)
     this.name = 'PlatePlanTooLargeError'
   }
