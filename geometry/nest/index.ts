@@ -20,6 +20,7 @@ export {
   PlatePlanTooLargeError,
   WORKFLOWS,
   DEFAULT_GLUE_FILM,
+  OFFCUT_LEAST,
   type Workflow,
   type PartLayer,
   type PlanEntry,

@@ -69,7 +69,7 @@ export async function renderLayoutPdf(plan: SheetPlan, entries: PlanEntry[], opt
   plan.layouts.forEach((layout, index) => {
     const page = doc.addPage([PAGE.width, PAGE.height])
     const top = PAGE.height - MARGIN
-    text(page, font, `${options.title ? `${options.title}: ` : ''}sheet plan, ${index + 1} of ${plan.layouts.length}`, MARGIN, top - 14, 14)
+    text(page, font, `${options.title ? `${options.title}: sheet plan` : 'Sheet plan'}, ${index + 1} of ${plan.layouts.length}`, MARGIN, top - 14, 14)
     text(page, font, workflowLine(plan, layout.sheets), MARGIN, top - 30, 9)
     text(page, font, `Sheet ${L(W)} x ${L(H)}, edge margin ${L(margin)}, kerf ${L(kerf)}. Drawn to scale 1:${Math.round(1 / (scale / (72 / 25.4)))}; origin lower left.`, MARGIN, top - 43, 8, false, GREY)
 

@@ -106,8 +106,8 @@ function rotate(ring: readonly Point[], degrees: number): Point[] {
 }
 
 interface Prepared {
-  /** Unique per prepared shape: keys the no-fit polygon cache. */
-  uid: number
+  /** A digest of the spacing shape: keys the no-fit polygon cache. */
+  key: string
   index: number
   /** The spacing shape unturned, and its convex pieces. */
   spacing: Point[]
@@ -129,7 +129,27 @@ function normaliseTurns(turns: number[], grain: boolean): number[] {
   return [...set].sort((a, b) => a - b)
 }
 
-let nextUid = 1
+/** FNV-1a over the ring's coordinates to the micrometre, with its length: equal shapes, equal keys. */
+function digest(ring: readonly Point[]): string {
+  let h = 0x811c9dc5
+  for (const [x, y] of ring) {
+    for (const v of [Math.round(x * 1000), Math.round(y * 1000)]) {
+      h ^= v & 0xffff
+      h = Math.imul(h, 0x01000193)
+      h ^= (v >>> 16) & 0xffff
+      h = Math.imul(h, 0x01000193)
+    }
+  }
+  return `${ring.length}:${(h >>> 0).toString(36)}`
+}
+
+/**
+ * No-fit polygons already worked out, shared by every nesting in this
+ * process: a plan asked again with one count changed, or its files, reuse
+ * them. Bounded; the oldest go first.
+ */
+const NFP_CACHE = new Map<string, Point[][]>()
+const NFP_CACHE_SIZE = 5000
 
 /**
  * The outline grown by `clearance` (half the kerf each side keeps two parts a
@@ -173,7 +193,7 @@ function prepare(index: number, outline: Point[], sheet: NestSheetInput, options
   const spacing0 = spacingShape(ccw, sheet.kerf / 2 + SLACK)
   const shapes = new Map<number, { bounds: Bounds; spacing: Point[] }>()
   for (const t of turns) shapes.set(t, { bounds: bounds(rotate(ccw, t)), spacing: rotate(spacing0, t) })
-  return { uid: nextUid++, index, spacing: spacing0, pieces: convexPieces(spacing0), outline, area: Math.abs(signedArea(ccw)), turns, shapes }
+  return { key: digest(spacing0), index, spacing: spacing0, pieces: convexPieces(spacing0), outline, area: Math.abs(signedArea(ccw)), turns, shapes }
 }
 
 interface Placement {
@@ -184,6 +204,8 @@ interface Placement {
 
 interface SheetState {
   placed: Placement[]
+  /** Room inside the margin not yet covered by a part's outline, mm2: a part larger than this cannot fit, so its sums are skipped. */
+  free: number
 }
 
 /** Where a part at `turn` may put its origin so that it stays inside the margin (empty when it cannot). */
@@ -210,14 +232,12 @@ function innerFit(b: Bounds, sheet: NestSheetInput): Point[] | null {
  * the same difference.
  */
 class Nester {
-  private nfpCache = new Map<string, Point[][]>()
-
   constructor(private sheet: NestSheetInput) {}
 
   private nfp(fixed: Placement, moving: Prepared, turn: number): Point[][] {
     const rel = (((turn - fixed.turn) % 360) + 360) % 360
-    const key = `${fixed.prepared.uid}|${moving.uid}|${rel}`
-    let base = this.nfpCache.get(key)
+    const key = `${fixed.prepared.key}|${moving.key}|${rel}`
+    let base = NFP_CACHE.get(key)
     if (!base) {
       // Positions p where moving + p meets fixed: fixed + (-moving).
       const neg = (ring: Point[]) => rotate(ring, rel + 180)
@@ -225,7 +245,8 @@ class Nester {
         a: fixed.prepared.pieces,
         b: moving.pieces.map(neg),
       })
-      this.nfpCache.set(key, base)
+      NFP_CACHE.set(key, base)
+      if (NFP_CACHE.size > NFP_CACHE_SIZE) NFP_CACHE.delete(NFP_CACHE.keys().next().value!)
     }
     const [dx, dy] = fixed.at
     return base.map((ring) => rotate(ring, fixed.turn).map(([x, y]) => [x + dx, y + dy] as Point))
@@ -233,6 +254,7 @@ class Nester {
 
   /** The best spot for one part on one sheet over its turns, or null. */
   bestOn(state: SheetState, part: Prepared): Placement | null {
+    if (part.area > state.free) return null
     let best: { placement: Placement; score: [number, number] } | null = null
     for (const turn of part.turns) {
       const shape = part.shapes.get(turn)!
@@ -313,6 +335,7 @@ export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, opt
   }
   const nester = new Nester(sheet)
   const sheets: SheetState[] = []
+  const usable = (sheet.width - 2 * sheet.margin) * (sheet.height - 2 * sheet.margin)
   const started = Date.now()
   let done = 0
   for (const part of queue) {
@@ -329,13 +352,14 @@ export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, opt
       }
     }
     if (!placement) {
-      target = { placed: [] }
+      target = { placed: [], free: usable }
       sheets.push(target)
       placement = nester.bestOn(target, part)
       // refuseTooLarge guarantees an empty sheet takes every part.
       if (!placement) throw new Error(`Part ${part.index + 1} did not fit an empty sheet.`)
     }
     target!.placed.push(placement)
+    target!.free -= part.area
     done++
     options.onProgress?.(done, queue.length)
   }
@@ -343,7 +367,7 @@ export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, opt
   return {
     result,
     fitsMore(extra) {
-      const trial = sheets.map((s) => ({ placed: [...s.placed] }))
+      const trial = sheets.map((s) => ({ placed: [...s.placed], free: s.free }))
       for (const { part: index, count } of extra) {
         const part = prepared[index]
         if (!part) throw new RangeError(`No part ${index + 1}.`)
@@ -351,6 +375,7 @@ export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, opt
           const spot = trial.map((s) => ({ s, p: nester.bestOn(s, part) })).find((x) => x.p)
           if (!spot) return false
           spot.s.placed.push(spot.p!)
+          spot.s.free -= part.area
         }
       }
       return true

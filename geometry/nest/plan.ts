@@ -67,7 +67,7 @@ export interface PlanLayout {
   parts: PlanPart[]
   /** Area of the parts' outlines, mm2. */
   partArea: number
-  /** The clear strip left at the far end, inside the margin, or null. */
+  /** The clear strip left at the far end, inside the margin, or null when it is under OFFCUT_LEAST. */
   offcut: { x: number; y: number; width: number; height: number } | null
 }
 
@@ -108,6 +108,8 @@ export class PlatePlanTooLargeError extends Error {
 }
 
 export const DEFAULT_GLUE_FILM = 0.1524
+/** A strip narrower than this (2 in) is waste, not an offcut worth keeping (common practice, from memory). */
+export const OFFCUT_LEAST = 50.8
 
 interface Group {
   /** Layers per plate in this group (panels), or 0 (layers workflow: one group). */
@@ -189,7 +191,7 @@ export function planSheets(entries: PlanEntry[], settings: PlanSettings): SheetP
         sheets: sheetsPer,
         parts,
         partArea,
-        offcut: height > 0 ? { x: sheet.margin, y, width: sheet.width - 2 * sheet.margin, height } : null,
+        offcut: height >= OFFCUT_LEAST ? { x: sheet.margin, y, width: sheet.width - 2 * sheet.margin, height } : null,
       })
     }
     for (const [i, p] of group.parts.entries()) {

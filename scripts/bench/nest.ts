@@ -26,6 +26,10 @@ for (const shape of ['river-stone', 'gnarled-oak']) {
   const t0 = performance.now()
   const { sheets } = nestParts(parts, SHEET)
   const ms = performance.now() - t0
+  // The same plan again, as when a count changes on the page: the no-fit polygons are kept.
+  const t1 = performance.now()
+  nestParts(parts, SHEET)
+  const warm = performance.now() - t1
 
   const partArea = parts.reduce((s, p) => s + Math.abs(signedArea(p.outline)) * p.count, 0)
   const usable = (SHEET.width - 2 * SHEET.margin) * (SHEET.height - 2 * SHEET.margin)
@@ -40,7 +44,8 @@ for (const shape of ['river-stone', 'gnarled-oak']) {
 
   const sizes = plates.map((p) => `${(p.metrics.width / 25.4).toFixed(1)}x${(p.metrics.height / 25.4).toFixed(1)} in`).join(', ')
   console.log(`${shape}: 12 plates (${sizes}), 2 layers each = 24 parts on 48 x 96 in`)
-  line('time', `${ms.toFixed(0)} ms (ratio ${(ms / GOAL_MS).toFixed(2)})`, `< ${GOAL_MS} ms`, ms < GOAL_MS)
+  line('time (first plan)', `${ms.toFixed(0)} ms (ratio ${(ms / GOAL_MS).toFixed(2)})`, `< ${GOAL_MS} ms`, ms < GOAL_MS)
+  line('time (asked again)', `${warm.toFixed(0)} ms (ratio ${(warm / GOAL_MS).toFixed(2)})`, `< ${GOAL_MS} ms`, warm < GOAL_MS)
   line('sheets vs area lower bound', `${sheets.length} vs ${lower}`, 'at most one more', sheets.length <= lower + 1)
   line('sheets vs peer (maxrects)', `${sheets.length} vs ${peer}`, 'fewer', sheets.length < peer)
   line('yield', `${(yieldShare * 100).toFixed(1)} %`, 'for information', true)
