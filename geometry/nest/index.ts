@@ -5,6 +5,9 @@
 export {
   nestParts,
   nestWithState,
+  nestSteps,
+  drain,
+  drainAsync,
   PartTooLargeError,
   NestTimeoutError,
   type NestPartInput,
@@ -17,6 +20,8 @@ export {
 } from './nest'
 export {
   planSheets,
+  planSheetsAsync,
+  planSteps,
   PlatePlanTooLargeError,
   WORKFLOWS,
   DEFAULT_GLUE_FILM,

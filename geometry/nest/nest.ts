@@ -325,7 +325,11 @@ export interface Nesting {
 }
 
 /** Nest and keep the state, so the caller can ask what else still fits. */
-export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, options: NestOptions = {}): Nesting {
+/**
+ * The nesting as steps: it yields after every part placed, so a caller can
+ * let other work run in between (nestWithStateAsync) and returns the result.
+ */
+export function* nestSteps(parts: NestPartInput[], sheet: NestSheetInput, options: NestOptions = {}): Generator<void, Nesting> {
   checkInputs(parts, sheet)
   const prepared = parts.map((p, i) => prepare(i, p.outline, sheet, options))
   refuseTooLarge(prepared.filter((p, i) => parts[i]!.count > 0), sheet)
@@ -362,6 +366,7 @@ export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, opt
     target!.free -= part.area
     done++
     options.onProgress?.(done, queue.length)
+    yield
   }
   const result: NestResult = { sheets: sheets.map((s) => ({ parts: s.placed.map(placedPart) })) }
   return {
@@ -372,15 +377,50 @@ export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, opt
         const part = prepared[index]
         if (!part) throw new RangeError(`No part ${index + 1}.`)
         for (let k = 0; k < count; k++) {
-          const spot = trial.map((s) => ({ s, p: nester.bestOn(s, part) })).find((x) => x.p)
-          if (!spot) return false
-          spot.s.placed.push(spot.p!)
-          spot.s.free -= part.area
+          let placed = false
+          for (const s of trial) {
+            const p = nester.bestOn(s, part)
+            if (!p) continue
+            s.placed.push(p)
+            s.free -= part.area
+            placed = true
+            break
+          }
+          if (!placed) return false
         }
       }
       return true
     },
   }
+}
+
+/** Run steps to the end without a break. */
+export function drain<T>(steps: Generator<void, T>): T {
+  for (;;) {
+    const r = steps.next()
+    if (r.done) return r.value
+  }
+}
+
+/**
+ * Run steps, handing the thread back (a macrotask) whenever `slice` ms of work
+ * have passed: a server keeps answering other requests, a page keeps painting.
+ */
+export async function drainAsync<T>(steps: Generator<void, T>, slice = 30): Promise<T> {
+  let since = Date.now()
+  for (;;) {
+    const r = steps.next()
+    if (r.done) return r.value
+    if (Date.now() - since >= slice) {
+      await new Promise((resolve) => setTimeout(resolve, 0))
+      since = Date.now()
+    }
+  }
+}
+
+/** nestSteps run to the end: the nesting and its state. */
+export function nestWithState(parts: NestPartInput[], sheet: NestSheetInput, options: NestOptions = {}): Nesting {
+  return drain(nestSteps(parts, sheet, options))
 }
 
 /**

@@ -9,7 +9,7 @@
 
 import type { Plate, Point } from '../types'
 import { signedArea } from '../math/polygon'
-import { nestWithState, PartTooLargeError, type NestOptions, type Nesting } from './nest'
+import { drain, drainAsync, nestSteps, PartTooLargeError, type NestOptions, type Nesting } from './nest'
 
 export type Workflow = 'panels' | 'layers'
 export const WORKFLOWS: readonly Workflow[] = ['panels', 'layers']
@@ -145,6 +145,16 @@ function groupsFor(entries: PlanEntry[], workflow: Workflow): Group[] {
 
 /** Nest the plan's plates and work out what to buy and glue. */
 export function planSheets(entries: PlanEntry[], settings: PlanSettings): SheetPlan {
+  return drain(planSteps(entries, settings))
+}
+
+/** planSheets, handing the thread back every few tens of milliseconds (see drainAsync). */
+export function planSheetsAsync(entries: PlanEntry[], settings: PlanSettings): Promise<SheetPlan> {
+  return drainAsync(planSteps(entries, settings))
+}
+
+/** The plan as steps: one per part placed and per spare plate tried. */
+export function* planSteps(entries: PlanEntry[], settings: PlanSettings): Generator<void, SheetPlan> {
   const { sheet, workflow } = settings
   const film = settings.glueFilm ?? DEFAULT_GLUE_FILM
   const usable = (sheet.width - 2 * sheet.margin) * (sheet.height - 2 * sheet.margin)
@@ -159,7 +169,7 @@ export function planSheets(entries: PlanEntry[], settings: PlanSettings): SheetP
   for (const group of groupsFor(entries, workflow)) {
     let nesting: Nesting
     try {
-      nesting = nestWithState(
+      nesting = yield* nestSteps(
         group.parts.map((p) => ({ outline: p.outline, count: p.count })),
         { width: sheet.width, height: sheet.height, margin: sheet.margin, kerf: sheet.kerf },
         { grain: settings.grain ?? false, timeLimit: remaining(), onProgress: settings.onProgress },
@@ -197,6 +207,7 @@ export function planSheets(entries: PlanEntry[], settings: PlanSettings): SheetP
     for (const [i, p] of group.parts.entries()) {
       const plateLayers = entries[p.entry]!.plate.params.layers
       spare[p.entry] = nesting.fitsMore([{ part: i, count: workflow === 'layers' ? plateLayers : 1 }])
+      yield
     }
   }
 

@@ -1,7 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { buildPlate, plateParamsSchema, type Plate, type Point } from '../../geometry'
 import {
-  planSheets,
+  planSheetsAsync,
   renderLayoutDxf,
   renderLayoutPdf,
   PlatePlanTooLargeError,
@@ -16,7 +16,7 @@ import { designs, revisions } from '../database/schema'
 import { invalid, notFound } from '../utils/validation'
 import type { SheetPlanRequest } from '../../shared/utils/sheet-plans'
 
-/** The longest one plan may nest, ms: the request holds the server's thread while it runs. */
+/** The longest one plan may nest, ms. */
 const TIME_LIMIT = Number(process.env.SHEET_PLAN_TIME_LIMIT_MS ?? 20_000)
 /** 1 US gallon = 231 in3 = 3.785411784 L (NIST Handbook 44). */
 const MM3_PER_US_GALLON = 231 * 25.4 ** 3
@@ -48,9 +48,10 @@ async function loadEntries(db: Database, shopId: string, input: SheetPlanRequest
 const cache = new Map<string, Promise<Loaded>>()
 const CACHE_SIZE = 12
 
-function plan(entries: Loaded['entries'], input: SheetPlanRequest): SheetPlan {
+async function plan(entries: Loaded['entries'], input: SheetPlanRequest): Promise<SheetPlan> {
   try {
-    return planSheets(entries, { sheet: input.sheet, workflow: input.workflow, grain: input.grain, timeLimit: TIME_LIMIT })
+    // In steps, handing the thread back between them: other requests are answered meanwhile.
+    return await planSheetsAsync(entries, { sheet: input.sheet, workflow: input.workflow, grain: input.grain, timeLimit: TIME_LIMIT })
   } catch (e) {
     if (e instanceof PlatePlanTooLargeError) {
       const entry = entries[e.entry]!
@@ -71,9 +72,9 @@ async function loadPlan(db: Database, shopId: string, input: SheetPlanRequest): 
   const key = JSON.stringify([shopId, input.sheet, input.workflow, input.grain, loaded.map((e) => [e.designId, e.revision, e.count])])
   let result = cache.get(key)
   if (!result) {
-    result = Promise.resolve().then(() => {
+    result = Promise.resolve().then(async () => {
       const entries = loaded.map((e) => ({ ...e, plate: buildPlate(e.params) as Plate }))
-      return { plan: plan(entries, input), entries }
+      return { plan: await plan(entries, input), entries }
     })
     cache.set(key, result)
     result.catch(() => cache.delete(key))
