@@ -37,7 +37,7 @@ export function useSheetPlan(request: Ref<SheetPlanRequest | null>) {
     }
   }
 
-  watch(request, (body) => {
+  function follow(body: SheetPlanRequest | null) {
     clearTimeout(timer)
     if (!body) {
       controller?.abort()
@@ -49,7 +49,12 @@ export function useSheetPlan(request: Ref<SheetPlanRequest | null>) {
     }
     busy.value = true
     timer = setTimeout(() => run(body), 400)
-  }, { deep: true, immediate: true })
+  }
+  // Only in the browser, once mounted: the server renders the page without a plan, and the
+  // first paint matches it.
+  onMounted(() => {
+    watch(request, follow, { deep: true, immediate: true })
+  })
   onBeforeUnmount(() => {
     clearTimeout(timer)
     controller?.abort()

@@ -1,5 +1,5 @@
-// The sheet plan page in Chromium: plan 2 + 2 + 2 of three designs of this
-// test's own shop, see the layouts, change a count and see the answer follow,
+// The sheet plan page in Chromium: open it from a show, plan 2 + 2 + 2 of the
+// three designs of this test's own shop, see the layouts, change a count and see the answer follow,
 // download the PDF and a sheet's DXF and read them back (pdf-lib,
 // dxf-parser). Any console error or page error fails the test. Screenshots
 // go to test-results/e2e/plan-*.png.
@@ -39,6 +39,13 @@ describe('the sheet plan page', () => {
     await page.getByRole('link', { name: 'Sheet plan' }).click()
     await page.waitForURL(`${base}/plan`)
     await expect.poll(() => page.getByText('Give a count for at least one design').isVisible()).toBe(true)
+
+    // Opened from the show: its three designs start at one plate each, the design outside it at none.
+    await page.goto(`${base}/plan?show=${shop.showId}`)
+    await expect.poll(() => page.getByLabel('Plates of Boulder small').inputValue()).toBe('1')
+    expect(await page.getByLabel('Plates of Boulder large').inputValue()).toBe('1')
+    expect(await page.getByLabel('Plates of Lone stump').count()).toBe(0)
+    await expect.poll(() => page.getByTestId('plan-plates').textContent(), { timeout: 30_000 }).toBe('3')
 
     for (const size of ['small', 'medium', 'large']) await page.getByLabel(`Plates of Boulder ${size}`).fill('2')
     await page.getByTestId('plan-busy').waitFor({ state: 'visible' }).catch(() => {})
