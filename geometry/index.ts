@@ -2,3 +2,4 @@
 // The core (parameters, plate, units, presets) and the exporters.
 export * from './core'
 export * from './export'
+export * from './nest'

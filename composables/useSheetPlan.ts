@@ -1,0 +1,90 @@
+import type { SheetPlanRequest } from '~~/shared/utils/sheet-plans'
+import type { sheetPlan } from '~~/server/services/sheet-plans'
+
+export type SheetPlanView = Awaited<ReturnType<typeof sheetPlan>>
+
+/**
+ * The sheet plan for a request that changes as the person types: asked for
+ * again a moment after the last change, the request before it abandoned, with
+ * the busy flag, the server's message and field messages.
+ */
+export function useSheetPlan(request: Ref<SheetPlanRequest | null>) {
+  const plan = ref<SheetPlanView | null>(null)
+  const busy = ref(false)
+  const error = ref<string | null>(null)
+  const fields = ref<Record<string, string>>({})
+  let controller: AbortController | null = null
+  let timer: ReturnType<typeof setTimeout> | undefined
+
+  async function run(body: SheetPlanRequest) {
+    controller?.abort()
+    const mine = new AbortController()
+    controller = mine
+    busy.value = true
+    try {
+      plan.value = await $fetch<SheetPlanView>('/api/sheet-plans', { method: 'POST', body, signal: mine.signal })
+      error.value = null
+      fields.value = {}
+    }
+    catch (err: unknown) {
+      if (mine.signal.aborted) return
+      const info = errorInfo(err)
+      error.value = info.message
+      fields.value = info.fields
+    }
+    finally {
+      if (controller === mine) busy.value = false
+    }
+  }
+
+  function follow(body: SheetPlanRequest | null) {
+    clearTimeout(timer)
+    if (!body) {
+      controller?.abort()
+      busy.value = false
+      plan.value = null
+      error.value = null
+      fields.value = {}
+      return
+    }
+    busy.value = true
+    timer = setTimeout(() => run(body), 400)
+  }
+  // Only in the browser, once mounted: the server renders the page without a plan, and the
+  // first paint matches it.
+  onMounted(() => {
+    watch(request, follow, { deep: true, immediate: true })
+  })
+  onBeforeUnmount(() => {
+    clearTimeout(timer)
+    controller?.abort()
+  })
+
+  return { plan, busy, error, fields }
+}
+
+/** POST a request for a file and hand the bytes to the browser under the server's name. */
+export async function downloadPlanFile(url: string, body: unknown, fallbackName: string): Promise<void> {
+  const res = await fetch(url, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) })
+  if (!res.ok) {
+    let message = `The server answered ${res.status}`
+    try {
+      const b = await res.json() as { message?: string }
+      if (b.message) message = b.message
+    }
+    catch (err: unknown) {
+      if (!(err instanceof SyntaxError)) throw err
+    }
+    throw new Error(message)
+  }
+  const name = /filename="([^"]+)"/.exec(res.headers.get('content-disposition') ?? '')?.[1] ?? fallbackName
+  const blob = await res.blob()
+  const href = URL.createObjectURL(blob)
+  const a = document.createElement('a')
+  a.href = href
+  a.download = name
+  document.body.appendChild(a)
+  a.click()
+  a.remove()
+  setTimeout(() => URL.revokeObjectURL(href), 10_000)
+}

@@ -1,0 +1,97 @@
+// planSheets and its files, checked from outside: layer counts, sheets and
+// glue against hand arithmetic, areas by the shoelace formula, the DXF read
+// back with dxf-parser against the plate's own cut file, the PDF with pdf-lib.
+import { describe, expect, it } from 'vitest'
+import DxfParser from 'dxf-parser'
+import { PDFDocument } from 'pdf-lib'
+import { buildPlate, deriveForTube, inchesToMm, plateParamsSchema, presetParams, renderCutDxf } from '../../../geometry'
+import { planSheets, planSheetsAsync, renderLayoutDxf, renderLayoutPdf, type PlanEntry } from '../../../geometry/nest'
+import { shoelace, type Pt } from './checks'
+
+// 48 x 96 in (PS 1-19); 1 in = 25.4 mm (NIST SP 811).
+const SHEET = { width: inchesToMm(48), height: inchesToMm(96), margin: inchesToMm(0.5), kerf: inchesToMm(0.25), thickness: inchesToMm(0.703) }
+
+function column(layers: number, count: number, tubeInches = 12.5): PlanEntry {
+  const params = plateParamsSchema.parse({ ...presetParams('plain-column'), layers })
+  return { name: 'Column', size: `${tubeInches} in`, plate: buildPlate(deriveForTube(params, inchesToMm(tubeInches))), count }
+}
+
+/** Net face area by hand: the outline's shoelace area less each through-hole's pi d^2 / 4 (they do not overlap on this plate). */
+function netArea(e: PlanEntry): number {
+  return Math.abs(shoelace(e.plate.outline as Pt[])) - e.plate.holes.reduce((s, h) => s + (Math.PI * h.diameter ** 2) / 4, 0)
+}
+
+describe('planSheets', () => {
+  it('cut first: a three-layer plate is a top and two lower parts; glue on two faces of each plate', () => {
+    const e = column(3, 2)
+    const plan = planSheets([e], { sheet: SHEET, workflow: 'layers' })
+    const parts = plan.layouts.flatMap((l) => l.parts)
+    expect(parts.map((p) => `${p.layer}${p.layerNumber}`).sort()).toEqual(['bottom2', 'bottom2', 'bottom3', 'bottom3', 'top1', 'top1'])
+    expect(plan.panels).toBe(0)
+    expect(plan.sheetsToBuy).toBe(plan.layouts.length)
+    expect(plan.glue.area).toBeCloseTo(2 * 2 * netArea(e), -1)
+    // 6 mil film (0.1524 mm): volume = area x film.
+    expect(plan.glue.volume).toBeCloseTo(plan.glue.area * 0.1524, 3)
+  })
+
+  it('glued first: sheets = panels x layers, whole-sheet glue lines, yield by the shoelace formula', () => {
+    const entries = [column(2, 3, 10.5), column(2, 3, 16.5)]
+    const plan = planSheets(entries, { sheet: SHEET, workflow: 'panels' })
+    expect(plan.sheetsToBuy).toBe(plan.panels * 2)
+    expect(plan.glue.area).toBeCloseTo(plan.panels * SHEET.width * SHEET.height, 3)
+    const wood = entries.reduce((s, e) => s + e.count * 2 * Math.abs(shoelace(e.plate.outline as Pt[])), 0)
+    expect(plan.yield).toBeCloseTo(wood / (plan.sheetsToBuy * SHEET.width * SHEET.height), 9)
+    expect(plan.layouts.flatMap((l) => l.parts).every((p) => p.layer === 'all')).toBe(true)
+    // Area bound (REFERENCES.md), in panels, times two sheets each.
+    const usable = (SHEET.width - 2 * SHEET.margin) * (SHEET.height - 2 * SHEET.margin)
+    expect(plan.areaLowerBound).toBe(Math.ceil(wood / 2 / usable) * 2)
+    expect(plan.sheetsToBuy).toBeGreaterThanOrEqual(plan.areaLowerBound)
+  })
+
+  it('says whether one more plate fits: yes on a roomy sheet, no on a sheet cut to one plate', async () => {
+    const e = column(2, 1)
+    expect(planSheets([e], { sheet: SHEET, workflow: 'panels' }).spare).toEqual([true])
+    // A sheet 10 mm wider and longer than the plate plus its margins has no room for a second.
+    const tight = { ...SHEET, width: e.plate.metrics.width + 2 * SHEET.margin + 10, height: e.plate.metrics.height + 2 * SHEET.margin + 10 }
+    const plan = await planSheetsAsync([e], { sheet: tight, workflow: 'panels' })
+    expect(plan.layouts).toHaveLength(1)
+    expect(plan.spare).toEqual([false])
+  })
+
+  it('writes a sheet DXF whose parts are the plate\'s cut file turned and moved, and a PDF page per sheet', async () => {
+    const e = column(2, 3)
+    const plan = planSheets([e], { sheet: SHEET, workflow: 'layers' })
+    const parser = new DxfParser()
+    const own = parser.parseSync(renderCutDxf(e.plate, { units: 'in', layer: 'top' }))!
+    const sheet = parser.parseSync(renderLayoutDxf(plan, [e], 0, { units: 'in' }))!
+    // $INSUNITS 1 = inches (DXF Reference, HEADER section).
+    expect(sheet.header.$INSUNITS).toBe(1)
+    const outside = sheet.entities.filter((x: any) => x.layer === 'RP-OUTSIDE-CUT') as any[]
+    expect(outside).toHaveLength(plan.layouts[0]!.parts.length)
+    const ownOutline = (own.entities.find((x: any) => x.layer === 'RP-OUTSIDE-CUT') as any).vertices.map((v: any) => [v.x, v.y]) as Pt[]
+    for (const o of outside) {
+      const ring = o.vertices.map((v: any) => [v.x, v.y]) as Pt[]
+      // Same signed area as the plate's own file: congruent and not mirrored.
+      expect(shoelace(ring)).toBeCloseTo(shoelace(ownOutline), 6)
+      for (const [x, y] of ring) {
+        expect(x).toBeGreaterThanOrEqual(0.5 - 1e-6)
+        expect(y).toBeLessThanOrEqual(95.5 + 1e-6)
+      }
+    }
+    // Every layer the sheet file uses is one of the plate's own cut layers, or the sheet outline.
+    const ownLayers = new Set(Object.keys(own.tables.layer.layers))
+    const sheetLayers = new Set(sheet.entities.map((x: any) => x.layer as string))
+    for (const name of sheetLayers) expect(name === 'RP-SHEET' || ownLayers.has(name), name).toBe(true)
+    // Circles: the plate's drilled and routed holes, once per part (hole-saw guide circles are never cut).
+    const cutCircles = (d: any) => d.entities.filter((x: any) => x.type === 'CIRCLE' && !x.layer.startsWith('RP-HOLESAW-') && x.layer !== 'RP-REFERENCE').length
+    const tops = plan.layouts[0]!.parts.filter((p) => p.layer === 'top').length
+    const bottoms = plan.layouts[0]!.parts.length - tops
+    const bottomFile = parser.parseSync(renderCutDxf(e.plate, { units: 'in', layer: 'bottom' }))!
+    expect(cutCircles(sheet)).toBe(tops * cutCircles(own) + bottoms * cutCircles(bottomFile))
+
+    const pdf = await PDFDocument.load(await renderLayoutPdf(plan, [e], { units: 'mm' }))
+    expect(pdf.getPageCount()).toBe(plan.layouts.length)
+    // Letter, 612 x 792 pt (ASME Y14.1).
+    expect(pdf.getPage(0).getSize()).toEqual({ width: 612, height: 792 })
+  })
+})
