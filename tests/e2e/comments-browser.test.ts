@@ -30,6 +30,8 @@ async function openAs(email: string): Promise<Page> {
   await page.getByLabel('Password').fill('rootplate-demo')
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForURL(`${base}/`)
+  // Let the home page's own requests and link prefetches finish: leaving mid-way aborts them, which the watcher counts.
+  await page.waitForLoadState('networkidle')
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('design-name').waitFor()
   return page
@@ -54,6 +56,7 @@ describe('revision comments in Chromium', () => {
     await card.getByTestId('comment').filter({ hasText: note }).waitFor()
     await expect(card.getByLabel('Comment on r1').inputValue()).resolves.toBe('')
     await builder.screenshot({ path: `${shots}/comments-builder.png` })
+    await builder.waitForLoadState('networkidle')
     await builder.close()
 
     const designer = await openAs(demo.designer)
@@ -68,6 +71,7 @@ describe('revision comments in Chromium', () => {
     await thread.getByLabel('Comment on r1').fill('Yes: moved in r2, look again.')
     await thread.getByRole('button', { name: 'Post comment' }).click()
     await thread.getByTestId('comment').nth(1).filter({ hasText: 'moved in r2' }).waitFor()
+    await designer.waitForLoadState('networkidle')
     await designer.close()
     expect(takePageProblems()).toEqual([])
   })
