@@ -1,4 +1,4 @@
-import { chromium, type Browser, type Page } from 'playwright-core'
+import { chromium, type Browser, type BrowserContext, type Page, type Request } from 'playwright-core'
 
 /** Debian's Chromium, headless, with every background connection turned off (this machine has no outside network). */
 export function launchChromium(): Promise<Browser> {
@@ -15,8 +15,9 @@ export function launchChromium(): Promise<Browser> {
   })
 }
 
-interface Watched { problems: string[]; allow: RegExp[] }
+interface Watched { problems: string[]; allow: RegExp[]; closing: boolean; navigation: number }
 const watched = new Map<Page, Watched>()
+const closingContexts = new WeakSet<BrowserContext>()
 
 /**
  * Records everything that went wrong in a page: console errors (a hydration
@@ -25,8 +26,28 @@ const watched = new Map<Page, Watched>()
  * (matched against the recorded line); `expectCleanPages` fails on the rest.
  */
 export function watchPage(page: Page, allow: RegExp[] = []): Page {
-  const w: Watched = { problems: [], allow }
+  const w: Watched = { problems: [], allow, closing: false, navigation: 0 }
   watched.set(page, w)
+  // A request the browser cancels because its page is closing, or because the
+  // page moved on to another address before it finished (a link's code fetched
+  // ahead, a list still loading), is not a failure of the app. Everything else
+  // is: a refused connection, a reset, a DNS error, any answer of 400 or more.
+  const close = page.close.bind(page)
+  page.close = (options) => { w.closing = true; return close(options) }
+  const context = page.context()
+  if (!closingContexts.has(context)) {
+    closingContexts.add(context)
+    const closeContext = context.close.bind(context)
+    context.close = (options) => {
+      for (const p of context.pages()) { const pw = watched.get(p); if (pw) pw.closing = true }
+      return closeContext(options)
+    }
+  }
+  const issuedAt = new WeakMap<Request, number>()
+  page.on('request', (r) => {
+    if (r.isNavigationRequest() && r.frame() === page.mainFrame()) w.navigation++
+    issuedAt.set(r, w.navigation)
+  })
   page.on('console', (m) => {
     if (m.type() === 'error' || /hydration/i.test(m.text())) w.problems.push(`console ${m.type()}: ${m.text()}`)
   })
@@ -35,6 +56,7 @@ export function watchPage(page: Page, allow: RegExp[] = []): Page {
     // A download the browser hands to its own handler ends as aborted by design, not as a failure.
     const why = r.failure()?.errorText ?? ''
     if (why.includes('ERR_ABORTED') && r.resourceType() === 'other') return
+    if (why.includes('ERR_ABORTED') && (w.closing || (issuedAt.get(r) ?? w.navigation) < w.navigation)) return
     w.problems.push(`request failed: ${r.method()} ${r.url()} ${why}`)
   })
   page.on('response', (r) => {
