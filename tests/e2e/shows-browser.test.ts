@@ -122,6 +122,14 @@ describe('a size family in the browser', () => {
     await page.getByTestId(`quantity-${large!.id}`).fill('2')
     await page.getByTestId(`quantity-${large!.id}`).press('Enter')
     await expect.poll(() => page.getByTestId('total-plates').textContent()).toContain('2 plates')
+    // Sheets and glue follow the count: glued into panels first, a two-layer plate takes one
+    // sheet per layer of every panel (sheets = panels x 2, by the workflow's own definition).
+    const sheets = page.getByTestId('show-sheets')
+    await sheets.getByTestId('plan-panels').waitFor()
+    await expect.poll(() => sheets.getByTestId('show-sheets-summary').textContent()).not.toContain('updating')
+    const panels = Number(await sheets.getByTestId('plan-panels').textContent())
+    expect(panels).toBeGreaterThanOrEqual(1)
+    expect(Number(await sheets.getByTestId('plan-sheets-to-buy').textContent())).toBe(panels * 2)
     await page.waitForLoadState('networkidle')
     await page.screenshot({ path: `${shots}/show-page.png`, fullPage: true })
 

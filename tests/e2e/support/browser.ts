@@ -28,10 +28,13 @@ const closingContexts = new WeakSet<BrowserContext>()
 export function watchPage(page: Page, allow: RegExp[] = []): Page {
   const w: Watched = { problems: [], allow, closing: false, navigation: 0 }
   watched.set(page, w)
-  // A request the browser cancels because its page is closing, or because the
+  // A request the browser cancels because its page is closing, because the
   // page moved on to another address before it finished (a link's code fetched
-  // ahead, a list still loading), is not a failure of the app. Everything else
-  // is: a refused connection, a reset, a DNS error, any answer of 400 or more.
+  // ahead, a list still loading), or because the app itself dropped a fetch a
+  // newer one replaces (AbortController), is not a failure of the app.
+  // Everything else is: a refused connection, a reset, an empty or cut-off
+  // answer, a DNS error, any answer of 400 or more, and a page's own script or
+  // document cancelled while the page stays open.
   const close = page.close.bind(page)
   page.close = (options) => { w.closing = true; return close(options) }
   const context = page.context()
@@ -56,7 +59,7 @@ export function watchPage(page: Page, allow: RegExp[] = []): Page {
     // A download the browser hands to its own handler ends as aborted by design, not as a failure.
     const why = r.failure()?.errorText ?? ''
     if (why.includes('ERR_ABORTED') && r.resourceType() === 'other') return
-    if (why.includes('ERR_ABORTED') && (w.closing || (issuedAt.get(r) ?? w.navigation) < w.navigation)) return
+    if (why.includes('ERR_ABORTED') && (w.closing || (issuedAt.get(r) ?? w.navigation) < w.navigation || ['fetch', 'xhr'].includes(r.resourceType()))) return
     w.problems.push(`request failed: ${r.method()} ${r.url()} ${why}`)
   })
   page.on('response', (r) => {
