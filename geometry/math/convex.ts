@@ -5,27 +5,10 @@
 // leaves the polygon engine n x m overlapping quads to union.
 
 import type { Point } from '../types'
+import { convexHull } from './polygon'
 
 function cross(o: Point, a: Point, b: Point): number {
   return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0])
-}
-
-/** Convex hull, counter-clockwise, collinear points dropped (Andrew's monotone chain). */
-export function convexHull(points: readonly Point[]): Point[] {
-  const pts = [...points].sort((a, b) => a[0] - b[0] || a[1] - b[1])
-  if (pts.length < 3) return pts
-  const lower: Point[] = []
-  for (const p of pts) {
-    while (lower.length >= 2 && cross(lower[lower.length - 2]!, lower[lower.length - 1]!, p) <= 0) lower.pop()
-    lower.push(p)
-  }
-  const upper: Point[] = []
-  for (let i = pts.length - 1; i >= 0; i--) {
-    const p = pts[i]!
-    while (upper.length >= 2 && cross(upper[upper.length - 2]!, upper[upper.length - 1]!, p) <= 0) upper.pop()
-    upper.push(p)
-  }
-  return [...lower.slice(0, -1), ...upper.slice(0, -1)]
 }
 
 /** Minkowski sum of two convex polygons: the hull of every vertex sum. */
