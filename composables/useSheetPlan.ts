@@ -1,4 +1,5 @@
 import type { SheetPlanRequest } from '~~/shared/utils/sheet-plans'
+import { fileNameFrom, saveBlob } from '~/utils/save-file'
 import type { sheetPlan } from '~~/server/services/sheet-plans'
 
 export type SheetPlanView = Awaited<ReturnType<typeof sheetPlan>>
@@ -77,14 +78,5 @@ export async function downloadPlanFile(url: string, body: unknown, fallbackName:
     }
     throw new Error(message)
   }
-  const name = /filename="([^"]+)"/.exec(res.headers.get('content-disposition') ?? '')?.[1] ?? fallbackName
-  const blob = await res.blob()
-  const href = URL.createObjectURL(blob)
-  const a = document.createElement('a')
-  a.href = href
-  a.download = name
-  document.body.appendChild(a)
-  a.click()
-  a.remove()
-  setTimeout(() => URL.revokeObjectURL(href), 10_000)
+  saveBlob(await res.blob(), fileNameFrom(res.headers.get('content-disposition')) ?? fallbackName)
 }
