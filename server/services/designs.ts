@@ -41,6 +41,22 @@ export interface DesignFilter {
 }
 
 /** `%` and `_` typed into a search box are letters, not wildcards. */
+/** Joins a design to its latest revision: the one every list, show, family and plan reads. */
+export const latestRevisionOf = and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision))
+
+/** A design with its latest revision's id, number and params, as shows and families read it. */
+export const designWithLatestColumns = {
+  id: designs.id,
+  name: designs.name,
+  sizeLabel: designs.sizeLabel,
+  quantity: designs.quantity,
+  archivedAt: designs.archivedAt,
+  parentDesignId: designs.parentDesignId,
+  revisionId: revisions.id,
+  number: revisions.number,
+  params: revisions.params,
+}
+
 const likeText = (s: string) => `%${s.replace(/[\\%_]/g, c => `\\${c}`)}%`
 
 export interface DesignDetail {
@@ -133,7 +149,7 @@ function prepareGetDesign(db: Database) {
     updatedAt: designs.updatedAt,
     latest: { ...revisionColumns, params: revisions.params },
   }).from(designs)
-    .innerJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
+    .innerJoin(revisions, latestRevisionOf)
     .leftJoin(shows, eq(shows.id, designs.showId))
     .leftJoin(users, eq(users.id, revisions.authorId))
     .where(and(eq(designs.id, sql.placeholder('designId')), eq(designs.shopId, sql.placeholder('shopId'))))

@@ -6,6 +6,7 @@ import type { Database } from '../utils/db'
 import { activity, designs, revisions } from '../database/schema'
 import { deriveForTube, formatLength, plateParamsSchema, type PlateParams } from '../../geometry/core'
 import type { Actor } from './designs'
+import { latestRevisionOf, designWithLatestColumns } from './designs'
 
 export interface FamilyMember {
   id: string
@@ -30,18 +31,8 @@ export interface Family {
 const tubeOf = (params: unknown) => sql<number>`(${params}->>'tubeDiameter')::float8`
 
 async function member(db: Database, shopId: string, id: string): Promise<(FamilyMember & { parentDesignId: string | null }) | null> {
-  const [row] = await db.select({
-    id: designs.id,
-    name: designs.name,
-    sizeLabel: designs.sizeLabel,
-    quantity: designs.quantity,
-    archivedAt: designs.archivedAt,
-    parentDesignId: designs.parentDesignId,
-    revisionId: revisions.id,
-    number: revisions.number,
-    params: revisions.params,
-  }).from(designs)
-    .innerJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
+  const [row] = await db.select(designWithLatestColumns).from(designs)
+    .innerJoin(revisions, latestRevisionOf)
     .where(and(eq(designs.id, id), eq(designs.shopId, shopId)))
   if (!row) return null
   const { revisionId, number, params, ...rest } = row
@@ -70,7 +61,7 @@ export async function getFamily(db: Database, shopId: string, designId: string):
     followsId: designs.parentRevisionId,
     followsNumber: sql<number | null>`(select r.number from ${revisions} r where r.id = ${designs.parentRevisionId})`,
   }).from(designs)
-    .innerJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
+    .innerJoin(revisions, latestRevisionOf)
     .where(and(eq(designs.shopId, shopId), eq(designs.parentDesignId, parent.id)))
     .orderBy(asc(tubeOf(revisions.params)), asc(designs.name))
   const { parentDesignId: _, ...parentOut } = parent

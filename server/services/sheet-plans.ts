@@ -12,6 +12,7 @@ import {
 import { thinRing } from '../../geometry/math/offset'
 import type { FontBytes } from '../../geometry/export'
 import type { Database } from '../utils/db'
+import { latestRevisionOf } from './designs'
 import { designs, revisions } from '../database/schema'
 import { invalid, notFound } from '../utils/validation'
 import type { SheetPlanRequest } from '../../shared/utils/sheet-plans'
@@ -31,7 +32,7 @@ async function loadEntries(db: Database, shopId: string, input: SheetPlanRequest
   const rows = await db
     .select({ id: designs.id, name: designs.name, sizeLabel: designs.sizeLabel, revision: revisions.number, params: revisions.params })
     .from(designs)
-    .innerJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
+    .innerJoin(revisions, latestRevisionOf)
     .where(and(eq(designs.shopId, shopId), inArray(designs.id, ids)))
   const byId = new Map(rows.map((r) => [r.id, r]))
   return input.items.map((item, i) => {

@@ -5,6 +5,7 @@ import type { Database } from '../utils/db'
 import { activity, designs, revisions, shows } from '../database/schema'
 import { buildPlate, plateParamsSchema } from '../../geometry/core'
 import type { Actor } from './designs'
+import { latestRevisionOf, designWithLatestColumns } from './designs'
 
 export interface ShowRow {
   id: string
@@ -118,18 +119,8 @@ export interface ShowDetail extends ShowRow {
 export async function getShow(db: Database, shopId: string, id: string): Promise<ShowDetail | null> {
   const show = await showRow(db, shopId, id)
   if (!show) return null
-  const rows = await db.select({
-    id: designs.id,
-    name: designs.name,
-    sizeLabel: designs.sizeLabel,
-    quantity: designs.quantity,
-    archivedAt: designs.archivedAt,
-    parentDesignId: designs.parentDesignId,
-    revisionId: revisions.id,
-    number: revisions.number,
-    params: revisions.params,
-  }).from(designs)
-    .innerJoin(revisions, and(eq(revisions.designId, designs.id), eq(revisions.number, designs.latestRevision)))
+  const rows = await db.select(designWithLatestColumns).from(designs)
+    .innerJoin(revisions, latestRevisionOf)
     .where(and(eq(designs.shopId, shopId), eq(designs.showId, id), isNull(designs.archivedAt)))
     .orderBy(asc(sql`lower(${designs.name})`), asc(sql`(${revisions.params}->>'tubeDiameter')::float8`))
   const out: ShowDesign[] = rows.map((r) => {
