@@ -35,6 +35,14 @@ export function plateOutlineShape(params: PlateParams, features: RoundFeatures =
   return outlineShape(params, clearances, { cutterRadius: params.cutting.bitDiameter / 2 })
 }
 
+/** Where each lobe's tip stands on the outline, with the lobe's own reach and width. */
+export function lobeTipsOf(shape: OutlineShape): LobeTip[] {
+  return shape.lobes.map((l) => {
+    const radius = shape.radiusAt(l.angle)
+    return { index: l.index, angle: (((l.angle / DEG) % 360) + 360) % 360, radius, x: radius * Math.cos(l.angle), y: radius * Math.sin(l.angle), reach: l.reach, width: l.width }
+  })
+}
+
 export function buildPlate(params: PlateParams, options: BuildOptions = {}): Plate {
   const tolerance = options.tolerance ?? 0.1
   const features = roundFeatures(params)
@@ -44,10 +52,7 @@ export function buildPlate(params: PlateParams, options: BuildOptions = {}): Pla
   const outline = sampled.points
   const outlinePath = smoothPath(sampled, shape, { tolerance })
 
-  const lobeTips: LobeTip[] = shape.lobes.map((l) => {
-    const radius = shape.radiusAt(l.angle)
-    return { index: l.index, angle: (((l.angle / DEG) % 360) + 360) % 360, radius, x: radius * Math.cos(l.angle), y: radius * Math.sin(l.angle) }
-  })
+  const lobeTips = lobeTipsOf(shape)
 
   const mounts = casterMounts(params, pockets)
   const notches = tubeNotches(params, rabbets)

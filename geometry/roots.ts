@@ -9,7 +9,8 @@
 // its angle, reach and width pinned: the root stays put, the others spread.
 
 import type { LobeOverride, PlateParams } from './params'
-import { plateOutlineShape } from './plate'
+import type { LobeTip } from './types'
+import { lobeTipsOf, plateOutlineShape } from './plate'
 
 const DEG = Math.PI / 180
 
@@ -42,21 +43,21 @@ export function nominalAngle(params: PlateParams, index: number, count = params.
   return params.rotation + params.lobes.phase + (index * 360) / Math.max(count, 1)
 }
 
-/** Each lobe's figures as built (irregularity and overrides applied). */
-export function rootFigures(params: PlateParams): RootFigures[] {
-  const shape = plateOutlineShape(params)
-  return shape.lobes.map((l) => {
-    const angle = ((((l.angle / DEG) % 360) + 360) % 360)
-    return {
-      index: l.index,
-      angle,
-      fromAxis: (((angle - params.rotation) % 360) + 360) % 360,
-      reach: l.reach,
-      width: l.width,
-      tipRadius: shape.radiusAt(l.angle),
-      pulled: params.lobes.overrides.some(o => o.index === l.index),
-    }
-  })
+/**
+ * Each lobe's figures as built (irregularity and overrides applied). `tips`
+ * are the lobe tips of a plate already built from `params` (or of a drag's
+ * preview), which saves building the outline again.
+ */
+export function rootFigures(params: PlateParams, tips: readonly LobeTip[] = lobeTipsOf(plateOutlineShape(params))): RootFigures[] {
+  return tips.map(t => ({
+    index: t.index,
+    angle: t.angle,
+    fromAxis: (((t.angle - params.rotation) % 360) + 360) % 360,
+    reach: t.reach,
+    width: t.width,
+    tipRadius: t.radius,
+    pulled: params.lobes.overrides.some(o => o.index === t.index),
+  }))
 }
 
 /** Roots pulled by hand that have no lobe at the present count (they are kept, and saving is refused, until the count is raised or they are dropped). */

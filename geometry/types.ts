@@ -83,6 +83,9 @@ export interface LobeTip {
   radius: number
   x: number
   y: number
+  /** The lobe's own reach beyond the valley line and width there, mm (irregularity and overrides applied). */
+  reach: number
+  width: number
 }
 
 export type Severity = 'error' | 'warning'

@@ -112,4 +112,26 @@ describe('the drag preview', () => {
     expect(preview.holes).toBe(base.holes)
     expect(preview.findings).toEqual([])
   })
+
+  it('reads the curve\'s own extent however coarse its chords, and rebuilds the holes when the casters move', () => {
+    const base = buildPlate(even())
+    const next = even()
+    // Off the sampling grid (a whole turn split in a power of two), so no sample need land on the tip.
+    setRoot(next, 1, { reach: 200, fromAxis: 101.7 })
+    // 5 mm chords: the polygon alone can fall short of a tip by up to that much.
+    const coarse = previewPlate(next, base, { tolerance: 5 })
+    const whole = buildPlate(next)
+    // The top of the plate is at least the tip's own height: 433.2 mm out (as above) at 101.7 degrees.
+    expect(coarse.metrics.bounds.maxY).toBeGreaterThanOrEqual(433.2 * Math.sin(101.7 * DEG) - 1e-6)
+    // The whole plate's bounds come from its 0.1 mm polygon; here the polygon alone reads about 0.24 mm short at the top.
+    for (const k of ['minX', 'minY', 'maxX', 'maxY'] as const) expect(Math.abs(coarse.metrics.bounds[k] - whole.metrics.bounds[k])).toBeLessThan(0.05)
+    expect(coarse.outline.length).toBeLessThan(previewPlate(next, base).outline.length)
+    // A caster offset of 250 mm puts pocket 1 (rotation 0) at (250, 0): the holes are built again.
+    const moved = even()
+    moved.casterOffset = 250
+    const preview = previewPlate(moved, base)
+    expect(preview.holes).not.toBe(base.holes)
+    const pocket = preview.holes.find(h => h.kind === 'pocket')!
+    expect(Math.hypot(pocket.x, pocket.y)).toBeCloseTo(250, 6)
+  })
 })
