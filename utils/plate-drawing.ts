@@ -47,7 +47,8 @@ function circle(scope: Scope, x: number, y: number, r: number, style: StyleProps
 }
 
 function polyline(scope: Scope, points: PlatePoint[], closed: boolean, style: StyleProps) {
-  const p = new scope.Path({ segments: points.map(([x, y]) => pt(scope, x, y)), closed, insert: false })
+  // Plain pairs: paper reads them as points without a Point object made first for each.
+  const p = new scope.Path({ segments: points.map(([x, y]) => [x, -y]), closed, insert: false })
   Object.assign(p, { strokeScaling: false, ...style })
   return p
 }
@@ -160,25 +161,53 @@ export function drawFindingMarks(scope: Scope, layer: paper.Layer, plate: Plate,
   }
 }
 
+/**
+ * The overall width and height lines beside the plate. Their figures are set
+ * in the page's own text over the drawing (see `dimensionLabels`): canvas text
+ * is shaped again on every paint, and a drag repaints these lines on every move.
+ */
 export function drawDimensions(scope: Scope, layer: paper.Layer, plate: Plate, o: DrawOptions) {
-  const px = (n: number) => n / o.zoom
+  for (const line of dimensionLines(plate, o.zoom)) layer.addChild(polyline(scope, line, false, dimensionStyle))
+}
+
+export const dimensionStyle = { strokeColor: plateColours.dim, strokeWidth: 1 }
+
+/** The width line under the plate and the height line to its right, 24 px off, each with its end ticks in one stroke (across the first tick, along, across the last). Plate coordinates. */
+export function dimensionLines(plate: Plate, zoom: number): PlatePoint[][] {
+  const px = (n: number) => n / zoom
   const { minX, minY, maxX, maxY } = plate.metrics.bounds
-  const style = { strokeColor: plateColours.dim, strokeWidth: 1 }
   const below = minY - px(24)
   const right = maxX + px(24)
-  layer.addChild(polyline(scope, [[minX, below], [maxX, below]], false, style))
-  layer.addChild(polyline(scope, [[minX, below - px(5)], [minX, below + px(5)]], false, style))
-  layer.addChild(polyline(scope, [[maxX, below - px(5)], [maxX, below + px(5)]], false, style))
-  layer.addChild(polyline(scope, [[right, minY], [right, maxY]], false, style))
-  layer.addChild(polyline(scope, [[right - px(5), minY], [right + px(5), minY]], false, style))
-  layer.addChild(polyline(scope, [[right - px(5), maxY], [right + px(5), maxY]], false, style))
-  const width = new scope.PointText({ point: pt(scope, (minX + maxX) / 2, below - px(16)), content: o.formatLength(maxX - minX), justification: 'center', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
-  // Set upright in the gap between the plate and its dimension line: lying flat it ran over the plate's edge, and past the view's edge on a narrow screen.
-  const heightAt = pt(scope, right - px(6), (minY + maxY) / 2)
-  const height = new scope.PointText({ point: heightAt, content: o.formatLength(maxY - minY), justification: 'center', fillColor: plateColours.dim, fontFamily: 'IBM Plex Sans', fontSize: px(13), insert: false })
-  height.rotate(-90, heightAt)
-  layer.addChild(width)
-  layer.addChild(height)
+  const tick = px(5)
+  return [
+    [[minX, below - tick], [minX, below + tick], [minX, below], [maxX, below], [maxX, below + tick], [maxX, below - tick]],
+    [[right - tick, minY], [right + tick, minY], [right, minY], [right, maxY], [right + tick, maxY], [right - tick, maxY]],
+  ]
+}
+
+export interface DimensionLabel {
+  /** Where the label's middle goes, plate coordinates (mm, y up). */
+  x: number
+  y: number
+  text: string
+  /** Set upright, reading bottom to top. */
+  upright: boolean
+}
+
+/**
+ * The figures of the two dimension lines and where their middles go: the width
+ * under its line, the height set upright outside its line (lying flat it ran
+ * over the plate's edge, and past the view's edge on a narrow screen; inside
+ * the line it sat on the handle of a root reaching furthest right). Both stay
+ * within the 48 px the view keeps round a fitted plate.
+ */
+export function dimensionLabels(plate: Plate, o: Pick<DrawOptions, 'zoom' | 'formatLength'>): [DimensionLabel, DimensionLabel] {
+  const px = (n: number) => n / o.zoom
+  const { minX, minY, maxX, maxY } = plate.metrics.bounds
+  return [
+    { x: (minX + maxX) / 2, y: minY - px(36), text: o.formatLength(maxX - minX), upright: false },
+    { x: maxX + px(36), y: (minY + maxY) / 2, text: o.formatLength(maxY - minY), upright: true },
+  ]
 }
 
 /** A light grid in the chosen units: minor lines every inch or 10 mm, major every foot or 100 mm. */
