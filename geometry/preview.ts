@@ -7,10 +7,13 @@ import type { PlateParams } from './params'
 import type { Plate } from './types'
 import { roundFeatures } from './features/holes'
 import { casterMounts, tubeNotches } from './features/casters'
+import type { Point } from './types'
+import { wrapAngle, type OutlineShape } from './outline/shape'
 import { lobeTipsOf, plateOutlineShape } from './plate'
-import { sampleOutline } from './outline/sample'
+import { sampleArc, sampleOutline } from './outline/sample'
 
 const DEG = Math.PI / 180
+const TWO_PI = 2 * Math.PI
 /** One empty list for every preview, so a drawing keyed on the findings sees no change between pointer moves. */
 const NO_FINDINGS: Plate['findings'] = []
 
@@ -90,7 +93,9 @@ export function previewPlate(params: PlateParams, base: Plate, options: PreviewO
   const holesStand = sameFeatures(params, base.params)
   const features = roundFeatures(params)
   const shape = plateOutlineShape(params, features)
-  const { points: outline, thetas } = sampleOutline(shape, { tolerance: options.tolerance ?? 0.5 })
+  const tolerance = options.tolerance ?? 0.5
+  const lobe = holesStand ? onlyLobeChanged(params, base.params) : null
+  const { points: outline, thetas } = (lobe !== null && keepingTheRest(base, shape, lobe, tolerance)) || sampleOutline(shape, { tolerance })
   // The samples at the extremes, then the curve's own extent near each: the dimensions drawn while
   // dragging read what the whole plate reads when the drag ends, whatever the chord tolerance.
   const at = [0, 0, 0, 0]
@@ -130,6 +135,101 @@ export function previewPlate(params: PlateParams, base: Plate, options: PreviewO
     findings: NO_FINDINGS,
     metrics: { ...base.metrics, bounds: { minX, minY, maxX, maxY } },
   }
+}
+
+/** The one lobe whose override alone differs between two params otherwise alike in their lobes, or null. */
+function onlyLobeChanged(a: PlateParams, b: PlateParams): number | null {
+  const { overrides: oa, ...restA } = a.lobes
+  const { overrides: ob, ...restB } = b.lobes
+  if (!sameData(restA, restB)) return null
+  let changed: number | null = null
+  for (const index of new Set([...oa, ...ob].map(o => o.index))) {
+    if (sameData(oa.find(o => o.index === index), ob.find(o => o.index === index))) continue
+    if (changed !== null) return null
+    changed = index
+  }
+  return changed
+}
+
+interface Whole { shape: OutlineShape; points: Point[]; thetas: Float64Array }
+const wholes = new WeakMap<Plate, Map<number, Whole>>()
+/**
+ * The whole plate's outline shape, and its outline sampled at the preview's
+ * tolerance with the angle of each point (rising from 0), made once per plate
+ * and tolerance: a plate is never changed, and the tolerance changes only
+ * with the zoom.
+ */
+function wholeOf(base: Plate, tolerance: number): Whole {
+  let byTolerance = wholes.get(base)
+  if (!byTolerance) {
+    byTolerance = new Map()
+    wholes.set(base, byTolerance)
+  }
+  let whole = byTolerance.get(tolerance)
+  if (!whole) {
+    const shape = byTolerance.values().next().value?.shape ?? plateOutlineShape(base.params)
+    const { points, thetas } = sampleOutline(shape, { tolerance })
+    whole = { shape, points, thetas }
+    byTolerance.set(tolerance, whole)
+  }
+  return whole
+}
+
+/** Makes ready at a drag's start what every move of it reuses (the whole outline at the preview's tolerance), so the first move does not pay for it. */
+export function preparePreview(base: Plate, options: PreviewOptions = {}): void {
+  wholeOf(base, options.tolerance ?? 0.5)
+}
+
+/** The number of angles in the rising list below `t`. */
+function countBelow(thetas: Float64Array, t: number): number {
+  let lo = 0
+  let hi = thetas.length
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1
+    if (thetas[mid]! < t) lo = mid + 1
+    else hi = mid
+  }
+  return lo
+}
+
+/**
+ * The outline when only lobe `index` changed: the radius function differs only
+ * where that lobe spans, before or after the change, so the arc from the last
+ * point of the whole plate's outline before that span to its first point after
+ * it is sampled afresh, and every other point and chord of the whole outline
+ * (sampled once at this tolerance) is kept as it was. Null when the span
+ * covers most of the turn.
+ */
+function keepingTheRest(base: Plate, shape: OutlineShape, index: number, tolerance: number): { points: Point[]; thetas: Float64Array } | null {
+  const whole = wholeOf(base, tolerance)
+  const before = whole.shape.lobes.find(l => l.index === index)
+  const after = shape.lobes.find(l => l.index === index)
+  if (!before || !after) return null
+  const centre = before.angle + wrapAngle(after.angle - before.angle)
+  const from = Math.min(before.angle - before.halfWidth, centre - after.halfWidth)
+  const to = Math.max(before.angle + before.halfWidth, centre + after.halfWidth)
+  if (to - from > 1.5 * Math.PI) return null
+  const { thetas } = whole
+  const n = thetas.length
+  const turn = (t: number) => ((t % TWO_PI) + TWO_PI) % TWO_PI
+  // The kept point just before the span, and the one just after it.
+  const last = (countBelow(thetas, turn(from)) + n - 1) % n
+  const after0 = countBelow(thetas, turn(to))
+  const first = (after0 < n && thetas[after0] === turn(to) ? after0 + 1 : after0) % n
+  const kept = ((last - first + n) % n) + 1
+  if (kept < 2 || kept >= n) return null
+  const start = thetas[last]!
+  const arc = sampleArc(shape, start, start + turn(thetas[first]! - start), { tolerance })
+  // The arc's ends are the kept points `last` and `first` themselves: its own copies stand for them.
+  const points = arc.points
+  const angles = new Float64Array(points.length + kept - 2)
+  arc.thetas.forEach((t, i) => { angles[i] = t % TWO_PI })
+  for (let k = 1; k < kept - 1; k++) {
+    const i = (first + k) % n
+    angles[points.length] = thetas[i]!
+    points.push(whole.points[i]!)
+  }
+  return { points, thetas: angles }
 }
 
 export function isPreview(plate: Plate): plate is PlatePreview {

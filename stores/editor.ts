@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
 import { buildPlate, defaultParams, paramIssues, plateParamsSchema, type Plate, type PlateParams, type ParamIssue } from '~~/geometry/core'
-import { previewPlate } from '~~/geometry/preview'
+import { preparePreview, previewPlate } from '~~/geometry/preview'
 
 /** What is selected on the canvas or in the findings list. */
 export type Selection =
@@ -152,6 +152,7 @@ export const useEditorStore = defineStore('editor', () => {
   function beginDrag() {
     dragStart.value = clone(params.value)
     frozen.value = params.value
+    preparePreview(plate.value, { tolerance: previewTolerance.value })
   }
 
   /** Moves during a drag change the params without adding history steps. */

@@ -43,8 +43,6 @@ export interface SampledOutline {
  */
 export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}): SampledOutline {
   const tolerance = options.tolerance ?? 0.1
-  const predictTol = tolerance * PREDICT_FACTOR
-  const verifyTol = tolerance * VERIFY_FACTOR
   const n = initialCount(shape, 256)
   const h = TWO_PI / n
   const xs = new Float64Array(n)
@@ -60,14 +58,30 @@ export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}):
     const b = (i + 1) % n
     bend[i] = Math.hypot(xs[a]! - 2 * xs[i]! + xs[b]!, ys[a]! - 2 * ys[i]! + ys[b]!)
   }
+  const chords = chordMaker(shape, tolerance)
+  for (let i = 0; i < n; i++) {
+    const next = (i + 1) % n
+    const prev = (i + n - 1) % n
+    chords.span(i * h, [xs[i]!, ys[i]!], (i + 1) * h, [xs[next]!, ys[next]!], Math.max(bend[prev]!, bend[i]!, bend[next]!))
+  }
+  const { points, thetas, probes } = chords
+  return { points, thetas: Float64Array.from(thetas), probes: Float64Array.from(probes) }
+}
+
+/**
+ * The chords of the outline between two of its points, by the rule above:
+ * cut into enough equal pieces for the predicted sagitta, then each piece
+ * emitted once the curve at a third and at two thirds of the way lies within
+ * the tolerance of it (two probes catch an S-bend that a midpoint alone would
+ * miss), otherwise split in three at those probes, so no evaluation is wasted.
+ * Each chord emits its start point.
+ */
+function chordMaker(shape: OutlineShape, tolerance: number) {
+  const predictTol = tolerance * PREDICT_FACTOR
+  const verifyTol = tolerance * VERIFY_FACTOR
   const points: Point[] = []
   const thetas: number[] = []
   const probes: number[] = []
-
-  // Emits the chord from (ta, a) towards (tb, b) once the curve at a third and
-  // at two thirds of the way lies within the tolerance of it (two probes catch an
-  // S-bend that a midpoint alone would miss); otherwise the chord is split in
-  // three at those probes, so no evaluation is wasted.
   const refine = (ta: number, a: Point, tb: number, b: Point, depth: number): void => {
     const t1 = ta + (tb - ta) / 3
     const t2 = ta + (2 * (tb - ta)) / 3
@@ -89,23 +103,48 @@ export function sampleOutline(shape: OutlineShape, options: SampleOptions = {}):
     refine(t1, p1, t2, p2, depth + 1)
     refine(t2, p2, tb, b, depth + 1)
   }
-
-  for (let i = 0; i < n; i++) {
-    const next = (i + 1) % n
-    const prev = (i + n - 1) % n
-    const sag = Math.max(bend[prev]!, bend[i]!, bend[next]!) / 8
-    const pieces = Math.min(64, Math.max(1, Math.ceil(Math.sqrt(sag / predictTol))))
-    let ta = i * h
-    let a: Point = [xs[i]!, ys[i]!]
+  /** One span of the first uniform pass, `bend` the largest second difference at and beside its ends. */
+  const span = (ta: number, a: Point, tb: number, b: Point, bend: number): void => {
+    const pieces = Math.min(64, Math.max(1, Math.ceil(Math.sqrt(bend / 8 / predictTol))))
     for (let k = 1; k <= pieces; k++) {
-      const tb = (i + k / pieces) * h
-      const b: Point = k === pieces ? [xs[next]!, ys[next]!] : shape.pointAt(tb)
-      refine(ta, a, tb, b, 0)
-      ta = tb
-      a = b
+      const t = ta + ((tb - ta) * k) / pieces
+      const p: Point = k === pieces ? b : shape.pointAt(t)
+      refine(ta + ((tb - ta) * (k - 1)) / pieces, a, t, p, 0)
+      a = p
     }
   }
-  return { points, thetas: Float64Array.from(thetas), probes: Float64Array.from(probes) }
+  return { points, thetas, probes, span }
+}
+
+/**
+ * The outline between the angles `from` and `to` (radians, `from` < `to` <
+ * `from` + 2 pi), both ends included, by the same rule and first spacing as
+ * `sampleOutline`. A drag that changes one lobe samples only the arc that lobe
+ * spans and keeps the rest of the last whole outline.
+ */
+export function sampleArc(shape: OutlineShape, from: number, to: number, options: SampleOptions = {}): { points: Point[]; thetas: Float64Array } {
+  const tolerance = options.tolerance ?? 0.1
+  const m = Math.max(2, Math.ceil((to - from) / (TWO_PI / initialCount(shape, 256))))
+  const h = (to - from) / m
+  // Samples -1 to m + 1: the two outside the arc only give the bend at its ends.
+  const xs = new Float64Array(m + 3)
+  const ys = new Float64Array(m + 3)
+  for (let i = 0; i < m + 3; i++) {
+    const [x, y] = shape.pointAt(from + (i - 1) * h)
+    xs[i] = x
+    ys[i] = y
+  }
+  const bend = new Float64Array(m + 3)
+  for (let i = 1; i <= m + 1; i++) bend[i] = Math.hypot(xs[i - 1]! - 2 * xs[i]! + xs[i + 1]!, ys[i - 1]! - 2 * ys[i]! + ys[i + 1]!)
+  bend[0] = bend[1]!
+  bend[m + 2] = bend[m + 1]!
+  const chords = chordMaker(shape, tolerance)
+  for (let j = 0; j < m; j++) {
+    chords.span(from + j * h, [xs[j + 1]!, ys[j + 1]!], j + 1 === m ? to : from + (j + 1) * h, [xs[j + 2]!, ys[j + 2]!], Math.max(bend[j]!, bend[j + 1]!, bend[j + 2]!))
+  }
+  chords.points.push([xs[m + 1]!, ys[m + 1]!])
+  chords.thetas.push(to)
+  return { points: chords.points, thetas: Float64Array.from(chords.thetas) }
 }
 
 export function samplePolygon(shape: OutlineShape, options: SampleOptions = {}): Point[] {

@@ -11,6 +11,9 @@ import { buildPlate, plateParamsSchema, type PlateParams } from '../../../geomet
 import { dropRoot, rootFigures, setLobeCount, setRoot, strandedRoots } from '../../../geometry/roots'
 import { previewPlate } from '../../../geometry/preview'
 import { moveLobeTip } from '../../../utils/plate-handles'
+import { PRESETS } from '../../../geometry/presets'
+import { plateOutlineShape } from '../../../geometry/plate'
+import { sampleOutline } from '../../../geometry/outline/sample'
 
 const DEG = Math.PI / 180
 // Four even lobes on a 16 in tube (406.4 mm, 1 in = 25.4 mm), rotation 0: lobe k at k * 90 degrees,
@@ -111,6 +114,44 @@ describe('the drag preview', () => {
     // Only the lobes changed: the holes are the whole plate's own, not rebuilt.
     expect(preview.holes).toBe(base.holes)
     expect(preview.findings).toEqual([])
+  })
+
+  it('on the busy plate, samples afresh only the root being dragged and keeps the rest of the whole outline, within the tolerance of the curve', () => {
+    const busy = plateParamsSchema.parse(PRESETS.find(p => p.id === 'banyan-sprawl')!.input)
+    const base = buildPlate(busy)
+    const tolerance = 2
+    // A drag as the editor makes it: each move pulls the tip of root 2 from the preview before it.
+    let params = structuredClone(busy)
+    let preview = previewPlate(params, base, { tolerance })
+    const start = base.lobeTips.find(t => t.index === 1)!
+    for (let step = 1; step <= 12; step++) {
+      const next = structuredClone(params)
+      moveLobeTip(next, preview, 1, { x: start.x + 8 * step, y: start.y + 5 * step })
+      params = next
+      preview = previewPlate(params, base, { tolerance })
+    }
+    const whole = buildPlate(params)
+    // Distances from each vertex of one polygon to the other's edges, by plain segment distance.
+    const far = (from: [number, number][], to: [number, number][]) => Math.max(...from.map(([px, py]) => {
+      let best = Infinity
+      to.forEach(([ax, ay], i) => {
+        const [bx, by] = to[(i + 1) % to.length]!
+        const dx = bx - ax
+        const dy = by - ay
+        const u = Math.max(0, Math.min(1, ((px - ax) * dx + (py - ay) * dy) / (dx * dx + dy * dy || 1)))
+        best = Math.min(best, Math.hypot(px - ax - u * dx, py - ay - u * dy))
+      })
+      return best
+    }))
+    // The preview's points lie on the curve, which the whole plate's 0.1 mm chords follow: within 0.1 mm of them.
+    expect(far(preview.outline, whole.outline)).toBeLessThan(0.1 + 1e-6)
+    // The whole plate's points lie on the curve, which the preview's chords follow within its tolerance.
+    expect(far(whole.outline, preview.outline)).toBeLessThan(tolerance + 1e-6)
+    // Away from root 2 the points are those of the drag start's outline at the same tolerance; the root itself was sampled afresh.
+    const kept = new Set(sampleOutline(plateOutlineShape(busy), { tolerance }).points.map(([x, y]) => `${x},${y}`))
+    const reused = preview.outline.filter(([x, y]) => kept.has(`${x},${y}`)).length
+    expect(reused).toBeGreaterThan(preview.outline.length / 2)
+    expect(reused).toBeLessThan(preview.outline.length)
   })
 
   it('reads the curve\'s own extent however coarse its chords, and rebuilds the holes when the casters move', () => {
