@@ -104,7 +104,6 @@ export const useEditorStore = defineStore('editor', () => {
   const dirty = computed(() => !same(settledParams.value, saved.value))
   const canUndo = computed(() => past.value.length > 0)
   const canRedo = computed(() => future.value.length > 0)
-  const errorCount = computed(() => plate.value.findings.filter(f => f.severity === 'error').length + issues.value.length)
 
   function load(id: string, revision: BaseRevision & { params: unknown }) {
     const read = readParams(revision.params)
@@ -242,7 +241,7 @@ export const useEditorStore = defineStore('editor', () => {
 
   return {
     designId, base, params, saved, selection, previewTolerance, saving, saveError, conflict, loadProblem,
-    plate, livePlate, settledParams, dragging, issues, dirty, canUndo, canRedo, errorCount,
+    plate, livePlate, settledParams, dragging, issues, dirty, canUndo, canRedo,
     load, close, update, replace, beginDrag, dragTo, endDrag, undo, redo, select, save, saveOnTop, reloadLatest,
   }
 })

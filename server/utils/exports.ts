@@ -2,12 +2,10 @@ import { fileURLToPath } from 'node:url'
 import { dirname } from 'node:path'
 import type { H3Event } from 'h3'
 import { getRevision } from '../services/designs'
-import { plateFromRevision, type RevisionForExport } from '../services/exports'
 import type { BuildSheetRevision } from '../services/build-sheet'
 import type { ExportJob } from '../services/export-jobs'
 import { ExportJobError, ExportPool, defaultPoolSize } from '../services/export-pool'
 import { ExportRunner, ExportsBusyError, ExportsQueueFullError, findWorkerFile } from '../services/export-runner'
-import type { Plate } from '../../geometry'
 import type { Member } from './auth'
 
 /** The revision named in the route (of the member's shop), as the export jobs take it; 404 otherwise. */
@@ -15,14 +13,6 @@ export async function exportRevision(event: H3Event, member: Member): Promise<Bu
   const revision = await getRevision(useDb(), member.shopId, routeId(event))
   if (!revision) throw notFound('That revision')
   return { number: revision.number, params: revision.params, designName: revision.designName, sizeLabel: revision.sizeLabel, createdAt: revision.createdAt, author: revision.author.name }
-}
-
-/** The revision named in the route (of the member's shop) and its rebuilt plate, or the right error. */
-export async function revisionPlate(event: H3Event, member: Member): Promise<{ revision: RevisionForExport; plate: Plate }> {
-  const { author: _author, ...forExport } = await exportRevision(event, member)
-  const built = plateFromRevision(forExport)
-  if (!built.ok) invalid(built.fields, 'This revision was saved with params that no longer pass the checks; open it in the editor and save it again')
-  return { revision: forExport, plate: built.plate }
 }
 
 /** The template font, shipped with the server as a Nitro server asset. */
