@@ -4,10 +4,9 @@
 // 60 times a second; the whole plate is built once more when the drag ends.
 
 import type { PlateParams } from './params'
-import type { Plate } from './types'
-import { roundFeatures } from './features/holes'
+import type { Plate, Point } from './types'
+import { roundFeatures, type RoundFeatures } from './features/holes'
 import { casterMounts, tubeNotches } from './features/casters'
-import type { Point } from './types'
 import { wrapAngle, type OutlineShape } from './outline/shape'
 import { lobeTipsOf, plateOutlineShape } from './plate'
 import { sampleArc, sampleOutline } from './outline/sample'
@@ -91,7 +90,8 @@ function extentNear(pointAt: (theta: number) => [number, number], thetas: Float6
  */
 export function previewPlate(params: PlateParams, base: Plate, options: PreviewOptions = {}): PlatePreview {
   const holesStand = sameFeatures(params, base.params)
-  const features = roundFeatures(params)
+  // Params alike but for the lobes, the unit and the skirt place the same holes: the drag start's stand.
+  const features = holesStand ? wholeOf(base).features : roundFeatures(params)
   const shape = plateOutlineShape(params, features)
   const tolerance = options.tolerance ?? 0.5
   const lobe = holesStand ? onlyLobeChanged(params, base.params) : null
@@ -151,33 +151,39 @@ function onlyLobeChanged(a: PlateParams, b: PlateParams): number | null {
   return changed
 }
 
-interface Whole { shape: OutlineShape; points: Point[]; thetas: Float64Array }
-const wholes = new WeakMap<Plate, Map<number, Whole>>()
+interface Whole {
+  features: RoundFeatures
+  shape: OutlineShape
+  /** The outline sampled at each tolerance asked for, with the angle of each point (rising from 0). */
+  sampled: Map<number, { points: Point[]; thetas: Float64Array }>
+}
+const wholes = new WeakMap<Plate, Whole>()
 /**
- * The whole plate's outline shape, and its outline sampled at the preview's
- * tolerance with the angle of each point (rising from 0), made once per plate
- * and tolerance: a plate is never changed, and the tolerance changes only
- * with the zoom.
+ * The whole plate's round features and outline shape, and its outline sampled
+ * at the preview's tolerance, made once per plate and tolerance: a plate is
+ * never changed, and the tolerance changes only with the zoom.
  */
-function wholeOf(base: Plate, tolerance: number): Whole {
-  let byTolerance = wholes.get(base)
-  if (!byTolerance) {
-    byTolerance = new Map()
-    wholes.set(base, byTolerance)
-  }
-  let whole = byTolerance.get(tolerance)
+function wholeOf(base: Plate): Whole {
+  let whole = wholes.get(base)
   if (!whole) {
-    const shape = byTolerance.values().next().value?.shape ?? plateOutlineShape(base.params)
-    const { points, thetas } = sampleOutline(shape, { tolerance })
-    whole = { shape, points, thetas }
-    byTolerance.set(tolerance, whole)
+    const features = roundFeatures(base.params)
+    whole = { features, shape: plateOutlineShape(base.params, features), sampled: new Map() }
+    wholes.set(base, whole)
   }
   return whole
+}
+function sampledWhole(whole: Whole, tolerance: number): { points: Point[]; thetas: Float64Array } {
+  let sampled = whole.sampled.get(tolerance)
+  if (!sampled) {
+    sampled = sampleOutline(whole.shape, { tolerance })
+    whole.sampled.set(tolerance, sampled)
+  }
+  return sampled
 }
 
 /** Makes ready at a drag's start what every move of it reuses (the whole outline at the preview's tolerance), so the first move does not pay for it. */
 export function preparePreview(base: Plate, options: PreviewOptions = {}): void {
-  wholeOf(base, options.tolerance ?? 0.5)
+  sampledWhole(wholeOf(base), options.tolerance ?? 0.5)
 }
 
 /** The number of angles in the rising list below `t`. */
@@ -201,7 +207,8 @@ function countBelow(thetas: Float64Array, t: number): number {
  * covers most of the turn.
  */
 function keepingTheRest(base: Plate, shape: OutlineShape, index: number, tolerance: number): { points: Point[]; thetas: Float64Array } | null {
-  const whole = wholeOf(base, tolerance)
+  const whole = wholeOf(base)
+  const outline = sampledWhole(whole, tolerance)
   const before = whole.shape.lobes.find(l => l.index === index)
   const after = shape.lobes.find(l => l.index === index)
   if (!before || !after) return null
@@ -209,7 +216,7 @@ function keepingTheRest(base: Plate, shape: OutlineShape, index: number, toleran
   const from = Math.min(before.angle - before.halfWidth, centre - after.halfWidth)
   const to = Math.max(before.angle + before.halfWidth, centre + after.halfWidth)
   if (to - from > 1.5 * Math.PI) return null
-  const { thetas } = whole
+  const { thetas } = outline
   const n = thetas.length
   const turn = (t: number) => ((t % TWO_PI) + TWO_PI) % TWO_PI
   // The kept point just before the span, and the one just after it.
@@ -227,7 +234,7 @@ function keepingTheRest(base: Plate, shape: OutlineShape, index: number, toleran
   for (let k = 1; k < kept - 1; k++) {
     const i = (first + k) % n
     angles[points.length] = thetas[i]!
-    points.push(whole.points[i]!)
+    points.push(outline.points[i]!)
   }
   return { points, thetas: angles }
 }
