@@ -118,6 +118,10 @@ describe('roots one by one', () => {
       seen.push(await page.getByTestId('handle-readout').textContent() ?? '')
     }
     await page.screenshot({ path: `${shots}/roots-drag.png` })
+    // Each figure stays on one line, however the readout wraps: a length such as 25-5/16" is never split at its hyphen.
+    const lines = await page.getByTestId('handle-readout').locator('[data-readout-part]').evaluateAll(els => els.map(el => el.getClientRects().length))
+    expect(lines.length).toBe(4)
+    expect(lines.every(n => n === 1)).toBe(true)
     await page.mouse.up()
     expect(seen.at(-1)).toMatch(/^Root 2: reach \d+(-\d+\/\d+)?", width \d+(-\d+\/\d+)?", [\d.]+° from the axis/)
     // The reach grows while the pointer moves: 120 mm (4-3/4 in) at the start.
