@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { api, demo, signIn } from './support/api'
+import { signInThroughForm } from './support/sign-in'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -25,13 +26,7 @@ afterAll(() => browser?.close())
 async function openAs(email: string): Promise<Page> {
   const base = inject('baseUrl')
   const page = watchPage(await browser.newPage({ viewport: { width: 1440, height: 900 } }))
-  await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill(email)
-  await page.getByLabel('Password').fill('rootplate-demo')
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${base}/`)
-  // Let the home page's own requests and link prefetches finish: leaving mid-way aborts them, which the watcher counts.
-  await page.waitForLoadState('networkidle')
+  await signInThroughForm(page, email)
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('design-name').waitFor()
   return page

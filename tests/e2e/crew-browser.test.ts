@@ -12,6 +12,7 @@ import { launchChromium } from './support/browser'
 import { api, demo, signIn } from './support/api'
 import { makeShop, uniqueEmail } from './support/crew'
 import { waitForMail } from './support/mail'
+import { signInThroughForm } from './support/sign-in'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -35,14 +36,6 @@ async function freshPage(): Promise<{ context: BrowserContext; page: Page }> {
   })
   page.on('pageerror', err => consoleErrors.push(`${page.url()}: ${err.message}`))
   return { context, page }
-}
-
-async function signInThroughForm(page: Page, email: string, password: string) {
-  await page.goto(`${inject('baseUrl')}/login`)
-  await page.getByLabel('E-mail').fill(email)
-  await page.getByLabel('Password').fill(password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${inject('baseUrl')}/`)
 }
 
 describe('crew and sharing in Chromium', () => {

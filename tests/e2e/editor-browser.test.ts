@@ -3,6 +3,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, it, inject } from 'vi
 import type { Browser, Page } from 'playwright-core'
 import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { api, signIn } from './support/api'
+import { signInThroughForm } from './support/sign-in'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -31,13 +32,7 @@ afterEach(() => { expect(takePageProblems()).toEqual([]) })
 async function signInAndOpen(email: string): Promise<Page> {
   const base = inject('baseUrl')
   const page = watchPage(await browser.newPage({ viewport: { width: 1280, height: 800 } }))
-  await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill(email)
-  await page.getByLabel('Password').fill('rootplate-demo')
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${base}/`)
-  // Leaving the home page while it still loads would abort its requests (and rightly fail the watcher).
-  await page.waitForLoadState('networkidle')
+  await signInThroughForm(page, email)
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('plate-canvas').waitFor()
   await page.getByText('Preparing the drawing…').waitFor({ state: 'detached' })

@@ -9,6 +9,7 @@ import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { api, freshAddress, signIn } from './support/api'
 import { createOwnShop } from './support/fixtures'
 import { hasher } from '../../scripts/seed'
+import { signInThroughForm } from './support/sign-in'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -53,13 +54,7 @@ function newContext(options: { acceptDownloads?: boolean } = {}) {
 async function openDesign(page: Page, allow: RegExp[] = []): Promise<void> {
   watchPage(page, allow)
   const base = inject('baseUrl')
-  await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill(builder.email)
-  await page.getByLabel('Password').fill(builder.password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${base}/`)
-  // Leaving the home page while it still loads would abort its requests (and rightly fail the watcher).
-  await page.waitForLoadState('networkidle')
+  await signInThroughForm(page, builder.email, builder.password)
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('export-panel').waitFor()
 }

@@ -16,6 +16,7 @@ import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { api, freshAddress, signIn } from './support/api'
 import { createOwnShop } from './support/fixtures'
 import { hasher } from '../../scripts/seed'
+import { signInThroughForm } from './support/sign-in'
 
 const IN = 25.4
 const shots = 'test-results/e2e'
@@ -44,12 +45,7 @@ async function open(who: 'designer' | 'builder', units: 'in' | 'mm', viewport = 
   const page = await context.newPage()
   watchPage(page)
   const base = inject('baseUrl')
-  await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill(people[who].email)
-  await page.getByLabel('Password').fill(people[who].password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${base}/`)
-  await page.waitForLoadState('networkidle')
+  await signInThroughForm(page, people[who].email, people[who].password)
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('problems-summary').waitFor()
   return { context, page }

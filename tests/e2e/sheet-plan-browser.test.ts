@@ -10,6 +10,7 @@ import { PDFDocument } from 'pdf-lib'
 import DxfParser from 'dxf-parser'
 import { launchChromium } from './support/browser'
 import { planShop } from './support/plan'
+import { signInThroughForm } from './support/sign-in'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -31,11 +32,7 @@ describe('the sheet plan page', () => {
     page.on('console', (m) => { if (m.type() === 'error') problems.push(m.text()) })
     page.on('pageerror', (e) => problems.push(e.message))
 
-    await page.goto(`${base}/login`)
-    await page.getByLabel('E-mail').fill(shop.email)
-    await page.getByLabel('Password').fill(shop.password)
-    await page.getByRole('button', { name: 'Sign in' }).click()
-    await page.waitForURL(`${base}/`)
+    await signInThroughForm(page, shop.email, shop.password)
     await page.getByRole('link', { name: 'Sheet plan' }).click()
     await page.waitForURL(`${base}/plan`)
     await expect.poll(() => page.getByText('Give a count for at least one design').isVisible()).toBe(true)

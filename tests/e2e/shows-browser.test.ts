@@ -10,6 +10,7 @@ import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { api, freshAddress, signIn } from './support/api'
 import { createOwnShop } from './support/fixtures'
 import { hasher } from '../../scripts/seed'
+import { signInThroughForm } from './support/sign-in'
 
 const shots = 'test-results/e2e'
 const INCH = 25.4
@@ -33,13 +34,7 @@ afterEach(() => { expect(takePageProblems()).toEqual([]) })
 async function signedIn(): Promise<Page> {
   const context = await browser.newContext({ viewport: { width: 1440, height: 900 }, extraHTTPHeaders: { 'x-forwarded-for': freshAddress() } })
   const page = watchPage(await context.newPage())
-  const base = inject('baseUrl')
-  await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill(lead.email)
-  await page.getByLabel('Password').fill(lead.password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${base}/`)
-  await page.waitForLoadState('networkidle')
+  await signInThroughForm(page, lead.email, lead.password)
   return page
 }
 

@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchChromium } from './support/browser'
 import { api, demo, signIn } from './support/api'
+import { signInThroughForm } from './support/sign-in'
 
 const IN = 25.4
 const shots = 'test-results/e2e'
@@ -39,11 +40,7 @@ async function open(): Promise<{ page: Page; problems: string[] }> {
   const problems: string[] = []
   page.on('console', (m) => { if (m.type() === 'error') problems.push(m.text()) })
   page.on('pageerror', (e) => problems.push(e.message))
-  await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill(demo.designer)
-  await page.getByLabel('Password').fill('rootplate-demo')
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${base}/`)
+  await signInThroughForm(page, demo.designer)
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('stability-panel').waitFor()
   return { page, problems }

@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchChromium } from './support/browser'
 import { makePng } from './support/files'
+import { signInThroughForm } from './support/sign-in'
 
 const shots = 'test-results/e2e'
 let browser: Browser
@@ -18,16 +19,11 @@ afterAll(() => browser?.close())
 
 /** A page signed in as the given demo member; console errors and page errors are collected. */
 async function signedIn(email: string): Promise<{ page: Page; errors: string[] }> {
-  const base = inject('baseUrl')
   const page = await browser.newPage({ viewport: { width: 1440, height: 900 } })
   const errors: string[] = []
   page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()) })
   page.on('pageerror', e => errors.push(e.message))
-  await page.goto(`${base}/login`)
-  await page.getByLabel('E-mail').fill(email)
-  await page.getByLabel('Password').fill('rootplate-demo')
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(`${base}/`)
+  await signInThroughForm(page, email)
   return { page, errors }
 }
 

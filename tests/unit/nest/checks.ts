@@ -9,15 +9,8 @@ import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs'
 
 export type Pt = [number, number]
 
-export function shoelace(ring: Pt[]): number {
-  let s = 0
-  for (let i = 0; i < ring.length; i++) {
-    const a = ring[i]!
-    const b = ring[(i + 1) % ring.length]!
-    s += a[0] * b[1] - b[0] * a[1]
-  }
-  return s / 2
-}
+// Signed area by the shoelace formula, the same independent reading the geometry tests use.
+export { shoelace } from '../geometry/helpers'
 
 export function perimeterOf(ring: Pt[]): number {
   let s = 0
