@@ -6,11 +6,12 @@
 import polygonClipping from 'polygon-clipping'
 // The package's `main` is a UMD file under `"type": "module"`, which Node cannot load: take its ES build.
 import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs'
+import { shoelace } from '../geometry/helpers'
 
 export type Pt = [number, number]
 
 // Signed area by the shoelace formula, the same independent reading the geometry tests use.
-export { shoelace } from '../geometry/helpers'
+export { shoelace }
 
 export function perimeterOf(ring: Pt[]): number {
   let s = 0
