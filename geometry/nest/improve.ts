@@ -168,10 +168,45 @@ export function* improveSteps(parts: NestPartInput[], sheet: NestSheetInput, opt
   let best: ImprovedLayout | null = null
   let bestCandidate: Candidate | null = null
 
-  /** Place one order; null when the budget ran out part way (the first layout is always finished). */
-  function* tryOrder(order: NestStep[] | undefined, replay?: { steps: NestStep[]; upTo: number }): Generator<ImproveProgress, Candidate | null> {
+  // The far edge (along y) of each part at each turn, from its own origin: a try's score so far.
+  const tops = new Map<string, number>()
+  const topOf = (part: number, turn: number) => {
+    const key = `${part}|${turn}`
+    let top = tops.get(key)
+    if (top === undefined) {
+      const t = (turn * Math.PI) / 180
+      const [c, s] = turn % 90 === 0 ? [Math.round(Math.cos(t)), Math.round(Math.sin(t))] : [Math.cos(t), Math.sin(t)]
+      top = Math.max(...parts[part]!.outline.map(([x, y]) => x * s + y * c))
+      tops.set(key, top)
+    }
+    return top
+  }
+  const cost = (s: LayoutScore) => s.sheets * (sheet.height + 1) + s.length
+
+  /**
+   * Place one order. A layout's score only grows as parts are placed (a new
+   * sheet, or the last one longer), so a try is given up as soon as it is
+   * worse than `bound`: 'worse'. null when the budget ran out part way (the
+   * first layout is always finished).
+   */
+  function* tryOrder(
+    order: NestStep[] | undefined,
+    bound = Infinity,
+    replay?: { steps: NestStep[]; upTo: number },
+  ): Generator<ImproveProgress, Candidate | 'worse' | null> {
     const given = order && replay ? order.map((s, k) => (k < replay.upTo ? replay.steps[k]! : s)) : order
-    const steps = nestSteps(parts, sheet, { ...nestOptions, order: given })
+    const sofar: LayoutScore = { sheets: 0, length: 0 }
+    const steps = nestSteps(parts, sheet, {
+      ...nestOptions,
+      order: given,
+      onProgress(_placed, _total, step) {
+        const top = step.at![1] + topOf(step.part, step.turn!)
+        if (step.sheet! + 1 > sofar.sheets) {
+          sofar.sheets = step.sheet! + 1
+          sofar.length = top
+        } else if (step.sheet! + 1 === sofar.sheets) sofar.length = Math.max(sofar.length, top)
+      },
+    })
     let placed = 0
     for (;;) {
       const r = steps.next()
@@ -188,6 +223,11 @@ export function* improveSteps(parts: NestPartInput[], sheet: NestSheetInput, opt
         return candidate
       }
       placed++
+      if (cost(sofar) > bound + 1e-9) {
+        steps.return(undefined as never)
+        tried++
+        return 'worse'
+      }
       if (best && spent()) {
         steps.return(undefined as never)
         return null
@@ -197,19 +237,18 @@ export function* improveSteps(parts: NestPartInput[], sheet: NestSheetInput, opt
   }
 
   // The first layout, largest first: always finished, whatever the budget.
-  let current = (yield* tryOrder(undefined))!
+  yield* tryOrder(undefined)
   if (total === 0) return best!
 
-  // 1. Multi-start.
+  // 1. Multi-start: only a better layout matters here.
   for (const order of startOrders(parts)) {
     if (spent()) return best!
-    const c = yield* tryOrder(order)
+    const c = yield* tryOrder(order, cost(best!.score))
     if (!c) return best!
   }
 
   // 2. Late-acceptance hill climbing on the order, from the best so far.
-  const cost = (s: LayoutScore) => s.sheets * (sheet.height + 1) + s.length
-  current = bestCandidate!
+  let current: Candidate = bestCandidate!
   const history: number[] = Array(HISTORY).fill(cost(current.score))
   const patience = Math.max(60, 2 * total)
   let sinceBest = 0
@@ -224,11 +263,12 @@ export function* improveSteps(parts: NestPartInput[], sheet: NestSheetInput, opt
     }
     idle = 0
     const bestBefore = best!.score
-    const c = yield* tryOrder(m.order, { steps: current.nesting.steps, upTo: m.from })
-    if (!c) break
     const v = step++ % HISTORY
-    const value = cost(c.score)
-    if (value <= cost(current.score) + 1e-9 || value <= history[v]! + 1e-9) current = c
+    const bound = Math.max(cost(current.score), history[v]!)
+    const c = yield* tryOrder(m.order, bound, { steps: current.nesting.steps, upTo: m.from })
+    if (!c) break
+    // Accepted when no worse than the current layout or the one HISTORY tries back.
+    if (c !== 'worse' && cost(c.score) <= bound + 1e-9) current = c
     history[v] = cost(current.score)
     sinceBest = betterScore(best!.score, bestBefore) ? 0 : sinceBest + 1
     // Stuck: start again from the best.

@@ -41,8 +41,8 @@ export interface NestOptions {
    * (checked between parts). Default: no limit.
    */
   timeLimit?: number
-  /** Report progress (parts placed, parts in all) after each part. */
-  onProgress?: (placed: number, total: number) => void
+  /** Report progress (parts placed, parts in all, and the step just placed) after each part. */
+  onProgress?: (placed: number, total: number, step: NestStep) => void
   /**
    * Place the copies in this order (one step per copy: each part's index as
    * often as its count), instead of largest first. A step may fix its turn;
@@ -165,6 +165,8 @@ function digest(ring: readonly Point[]): string {
  */
 const NFP_CACHE = new Map<string, Point[][]>()
 const NFP_CACHE_SIZE = 5000
+/** Convex pieces of the spacing shapes, by the same digest: a search places the same parts again and again. */
+const PIECES_CACHE = new Map<string, Point[][]>()
 
 /**
  * The outline grown by `clearance` (half the kerf each side keeps two parts a
@@ -208,7 +210,13 @@ function prepare(index: number, outline: Point[], sheet: NestSheetInput, options
   const spacing0 = spacingShape(ccw, sheet.kerf / 2 + SLACK)
   const shapes = new Map<number, { bounds: Bounds; spacing: Point[] }>()
   for (const t of turns) shapes.set(t, { bounds: bounds(rotate(ccw, t)), spacing: rotate(spacing0, t) })
-  return { key: digest(spacing0), index, spacing: spacing0, pieces: convexPieces(spacing0), outline, area: Math.abs(signedArea(ccw)), turns, shapes }
+  const key = digest(spacing0)
+  let pieces = PIECES_CACHE.get(key)
+  if (!pieces) {
+    PIECES_CACHE.set(key, (pieces = convexPieces(spacing0)))
+    if (PIECES_CACHE.size > NFP_CACHE_SIZE) PIECES_CACHE.delete(PIECES_CACHE.keys().next().value!)
+  }
+  return { key, index, spacing: spacing0, pieces, outline, area: Math.abs(signedArea(ccw)), turns, shapes }
 }
 
 interface Placement {
@@ -405,7 +413,7 @@ export function* nestSteps(parts: NestPartInput[], sheet: NestSheetInput, option
     target!.free -= part.area
     steps.push({ part: part.index, turn: placement.turn, at: placement.at, sheet: sheets.indexOf(target!) })
     done++
-    options.onProgress?.(done, queue.length)
+    options.onProgress?.(done, queue.length, steps[done - 1]!)
     yield
   }
   const result: NestResult = { sheets: sheets.map((s) => ({ parts: s.placed.map(placedPart) })) }
