@@ -7,7 +7,8 @@
 // Two phases, each layout placed by nest.ts's own bottom-left step (so the
 // no-fit polygons it caches serve every try):
 //  1. multi-start: a few fixed orders (longest side, bounding box, shortest
-//     side, perimeter first), the best kept;
+//     side, perimeter first; largest first with every part at one turn, for
+//     each turn), the best kept;
 //  2. a local search on the order from the best: late-acceptance hill
 //     climbing (Burke & Bykov, "The late acceptance hill-climbing heuristic",
 //     EJOR 258, 2017) over three moves as in the order-based searches of
@@ -93,8 +94,11 @@ function fixableTurns(options: ImproveOptions): number[] {
   return [...set].sort((a, b) => a - b)
 }
 
-/** The fixed starting orders: each part's copies together, by one measure each, largest first. */
-function startOrders(parts: NestPartInput[]): NestStep[][] {
+/**
+ * The fixed starts: each part's copies together, by one measure each, largest
+ * first; then largest first with every copy at one turn, for each turn.
+ */
+function startOrders(parts: NestPartInput[], turns: number[]): NestStep[][] {
   const info = parts.map((p, i) => {
     const b = bounds(p.outline)
     const w = b.maxX - b.minX
@@ -110,6 +114,10 @@ function startOrders(parts: NestPartInput[]): NestStep[][] {
     if (seen.has(sig)) continue
     seen.add(sig)
     orders.push(sorted.flatMap((x) => Array.from({ length: parts[x.i]!.count }, () => ({ part: x.i }))))
+  }
+  const byArea = [...info].sort((a, b) => b.area - a.area || a.i - b.i)
+  for (const turn of turns.length > 1 ? turns : []) {
+    orders.push(byArea.flatMap((x) => Array.from({ length: parts[x.i]!.count }, () => ({ part: x.i, turn }))))
   }
   return orders
 }
@@ -241,7 +249,7 @@ export function* improveSteps(parts: NestPartInput[], sheet: NestSheetInput, opt
   if (total === 0) return best!
 
   // 1. Multi-start: only a better layout matters here.
-  for (const order of startOrders(parts)) {
+  for (const order of startOrders(parts, turns)) {
     if (spent()) return best!
     const c = yield* tryOrder(order, cost(best!.score))
     if (!c) return best!

@@ -43,7 +43,7 @@ const RECORDS: Record<string, number> = {
 const GOAL_MEAN = 1.1
 const GOAL_WORST = 1.2
 const thorough = Math.max(1, Number(process.env.BENCH_NEST_SECONDS ?? 30)) * 1000
-const quick = Math.min(10_000, thorough / 6)
+const quick = Math.min(thorough, Math.max(1000, Math.min(10_000, Math.round(thorough / 6000) * 1000)))
 const names = (process.env.BENCH_NEST_INSTANCES ?? Object.keys(RECORDS).join(',')).split(',').filter((n) => n in RECORDS)
 
 interface Instance {
@@ -151,6 +151,7 @@ for (const name of names) {
     let first: ImprovedLayout | null = null
     let atQuick: ImprovedLayout | null = null
     let last: ImprovedLayout | null = null
+    let tried = 0
     const steps = improveSteps(inst.parts, sheet, { turns: inst.turns, timeBudget: thorough, seed: 1 })
     for (;;) {
       const r = steps.next()
@@ -158,6 +159,7 @@ for (const name of names) {
         last = r.value
         break
       }
+      tried = r.value.tried
       const b = r.value.better
       if (!b) continue
       if (!first) {
@@ -175,7 +177,7 @@ for (const name of names) {
     }
     const parts = inst.parts.reduce((s, p) => s + p.count, 0)
     console.log(
-      `  ${name.padEnd(9)} ${String(parts).padStart(5)} ${cell(first!, ratios.first)} ${cell(atQuick ?? first!, ratios.quick)} ${cell(last, ratios.thorough)} ${fmt(record).padStart(9)} ${String(last.tried).padStart(6)} ${firstMs.toFixed(0).padStart(9)}  ${faults.length ? `FAULTS: ${faults.slice(0, 3).join('; ')}` : 'ok'}${inst.scale > 1 ? ` (x${inst.scale})` : ''}`,
+      `  ${name.padEnd(9)} ${String(parts).padStart(5)} ${cell(first!, ratios.first)} ${cell(atQuick ?? first!, ratios.quick)} ${cell(last, ratios.thorough)} ${fmt(record).padStart(9)} ${String(tried).padStart(6)} ${firstMs.toFixed(0).padStart(9)}  ${faults.length ? `FAULTS: ${faults.slice(0, 3).join('; ')}` : 'ok'}${inst.scale > 1 ? ` (x${inst.scale})` : ''}`,
     )
   } catch (e) {
     console.log(`  ${name.padEnd(9)} failed: ${e instanceof Error ? e.message : String(e)}`)
