@@ -14,7 +14,8 @@
 //     EJOR 258, 2017) over three moves as in the order-based searches of
 //     Gomes & Oliveira (EJOR 141, 2002) and Burke et al. (Operations
 //     Research 54, 2006): swap two parts near each other in the order, move
-//     one part to another place, fix (or free) one part's turn. A try keeps
+//     one part to another place, fix (or free) one part's turn, and move one
+//     of the parts that reach furthest earlier in the order. A try keeps
 //     the layout's start up to the first changed step (replayed unsearched),
 //     so it only searches the rest again.
 // Deterministic for a given seed and layout budget (geometry/math/prng.ts); a
@@ -126,21 +127,32 @@ function startOrders(parts: NestPartInput[], turns: number[]): NestStep[][] {
  * A move on the order: the new order and the first step it changes (steps
  * before it are the same, so their placements can be replayed).
  */
-function move(order: NestStep[], random: Random, turns: number[]): { order: NestStep[]; from: number } | null {
+function move(order: NestStep[], random: Random, turns: number[], tops: number[]): { order: NestStep[]; from: number } | null {
   const n = order.length
   if (n < 2 && turns.length < 2) return null
   const next = order.map((s) => ({ ...s }))
   const window = Math.max(3, Math.ceil(n / 5))
   const near = (i: number) => Math.min(n - 1, Math.max(0, i + Math.round((random() * 2 - 1) * window)))
   const r = random()
-  const i = Math.floor(random() * n)
-  if (r < 0.45 && n >= 2) {
+  // Half the moves start late in the order: later parts sit high, and a try replays all before its first change.
+  const i = Math.floor((random() < 0.5 ? Math.sqrt(random()) : random()) * n)
+  if (r < 0.2 && n >= 2) {
+    // One of the three parts reaching furthest on the last sheet goes earlier, into room lower down.
+    const high = tops.map((t, k) => [t, k] as const).sort((a, b) => b[0] - a[0] || a[1] - b[1]).slice(0, 3)
+    const k = high[Math.floor(random() * high.length)]![1]
+    if (k === 0) return null
+    const j = Math.floor(random() * k)
+    const [s] = next.splice(k, 1)
+    next.splice(j, 0, s!)
+    return { order: next, from: j }
+  }
+  if (r < 0.55 && n >= 2) {
     const j = near(i)
     if (next[i]!.part === next[j]!.part && next[i]!.turn === next[j]!.turn) return null
     ;[next[i], next[j]] = [next[j]!, next[i]!]
     return { order: next, from: Math.min(i, j) }
   }
-  if (r < 0.75 && n >= 2) {
+  if (r < 0.8 && n >= 2) {
     const j = near(i)
     if (j === i) return null
     const [s] = next.splice(i, 1)
@@ -190,6 +202,11 @@ export function* improveSteps(parts: NestPartInput[], sheet: NestSheetInput, opt
     return top
   }
   const cost = (s: LayoutScore) => s.sheets * (sheet.height + 1) + s.length
+  /** Per step of a layout, its part's far edge when on the last sheet (else -Infinity). */
+  const topsOf = (c: Candidate) => {
+    const last = c.score.sheets - 1
+    return c.nesting.steps.map((st) => (st.sheet === last ? st.at![1] + topOf(st.part, st.turn!) : -Infinity))
+  }
 
   /**
    * Place one order. A layout's score only grows as parts are placed (a new
@@ -263,7 +280,7 @@ export function* improveSteps(parts: NestPartInput[], sheet: NestSheetInput, opt
   let step = 0
   let idle = 0
   while (!spent()) {
-    const m = move(current.order, random, turns)
+    const m = move(current.order, random, turns, topsOf(current))
     if (!m) {
       // One part with one turn has no other order to try.
       if (++idle > 1000) break
