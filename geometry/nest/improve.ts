@@ -8,7 +8,7 @@
 // no-fit polygons it caches serve every try):
 //  1. multi-start: a few fixed orders (longest side, bounding box, shortest
 //     side, perimeter first; largest first with every part at one turn, for
-//     each turn), the best kept;
+//     each turn, and with copies half a turn apart by turns), the best kept;
 //  2. a local search on the order from the best: late-acceptance hill
 //     climbing (Burke & Bykov, "The late acceptance hill-climbing heuristic",
 //     EJOR 258, 2017) over three moves as in the order-based searches of
@@ -119,6 +119,10 @@ function startOrders(parts: NestPartInput[], turns: number[]): NestStep[][] {
   const byArea = [...info].sort((a, b) => b.area - a.area || a.i - b.i)
   for (const turn of turns.length > 1 ? turns : []) {
     orders.push(byArea.flatMap((x) => Array.from({ length: parts[x.i]!.count }, () => ({ part: x.i, turn }))))
+  }
+  // Copies turned half a turn from each other by turns, so they can interlock.
+  for (const turn of turns.filter((t) => t < 180 && turns.includes(t + 180))) {
+    orders.push(byArea.flatMap((x) => Array.from({ length: parts[x.i]!.count }, (_, k) => ({ part: x.i, turn: k % 2 ? turn + 180 : turn }))))
   }
   return orders
 }
