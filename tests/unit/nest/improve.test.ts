@@ -186,6 +186,12 @@ describe('nestSteps order', () => {
     expect(scoreOf(free)[1]).toBeGreaterThan(100)
     // Replayed from its steps, unsearched: the same layout.
     expect(nestParts(HAND_PARTS, strip, { order: nesting.steps }).sheets).toEqual(nesting.result.sheets)
+    // A step's position is taken as given: A (standing, turn 0) moved 3 right and 5 up, into the free room beside
+    // the four B, lands exactly there.
+    const [ax, ay] = nesting.steps[4]!.at!
+    const moved = nestParts(HAND_PARTS, strip, { order: nesting.steps.map((s, k) => (k === 4 ? { ...s, at: [ax + 3, ay + 5] as Pt } : s)) })
+    const a = moved.sheets[0]!.parts.find((p) => p.part === 0)!
+    expect(a.outline).toEqual(rect(20, 90).map(([x, y]) => [x + ax + 3, y + ay + 5]))
   })
 
   it('refuses an order that does not place every copy once or turns a part the wrong way', () => {
