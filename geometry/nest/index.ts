@@ -17,7 +17,18 @@ export {
   type NestedSheet,
   type NestResult,
   type Nesting,
+  type NestStep,
 } from './nest'
+export {
+  improveSteps,
+  improveNesting,
+  scoreLayout,
+  betterScore,
+  type ImproveOptions,
+  type ImproveProgress,
+  type ImprovedLayout,
+  type LayoutScore,
+} from './improve'
 export {
   planSheets,
   planSheetsAsync,

@@ -41,8 +41,23 @@ export interface NestOptions {
    * (checked between parts). Default: no limit.
    */
   timeLimit?: number
-  /** Report progress (parts placed, parts in all) after each part. */
-  onProgress?: (placed: number, total: number) => void
+  /** Report progress (parts placed, parts in all, and the step just placed) after each part. */
+  onProgress?: (placed: number, total: number, step: NestStep) => void
+  /**
+   * Place the copies in this order (one step per copy: each part's index as
+   * often as its count), instead of largest first. A step may fix its turn;
+   * a step with `at` and `sheet` is put there unsearched (replaying the start
+   * of an earlier layout from its `steps`: trusted, not checked).
+   */
+  order?: NestStep[]
+}
+
+/** One copy placed: which part, and (as a layout's record) its turn, position and sheet. */
+export interface NestStep {
+  part: number
+  turn?: number
+  at?: Point
+  sheet?: number
 }
 
 export interface PlacedPart {
@@ -150,6 +165,8 @@ function digest(ring: readonly Point[]): string {
  */
 const NFP_CACHE = new Map<string, Point[][]>()
 const NFP_CACHE_SIZE = 5000
+/** Convex pieces of the spacing shapes, by the same digest: a search places the same parts again and again. */
+const PIECES_CACHE = new Map<string, Point[][]>()
 
 /**
  * The outline grown by `clearance` (half the kerf each side keeps two parts a
@@ -193,7 +210,13 @@ function prepare(index: number, outline: Point[], sheet: NestSheetInput, options
   const spacing0 = spacingShape(ccw, sheet.kerf / 2 + SLACK)
   const shapes = new Map<number, { bounds: Bounds; spacing: Point[] }>()
   for (const t of turns) shapes.set(t, { bounds: bounds(rotate(ccw, t)), spacing: rotate(spacing0, t) })
-  return { key: digest(spacing0), index, spacing: spacing0, pieces: convexPieces(spacing0), outline, area: Math.abs(signedArea(ccw)), turns, shapes }
+  const key = digest(spacing0)
+  let pieces = PIECES_CACHE.get(key)
+  if (!pieces) {
+    PIECES_CACHE.set(key, (pieces = convexPieces(spacing0)))
+    if (PIECES_CACHE.size > NFP_CACHE_SIZE) PIECES_CACHE.delete(PIECES_CACHE.keys().next().value!)
+  }
+  return { key, index, spacing: spacing0, pieces, outline, area: Math.abs(signedArea(ccw)), turns, shapes }
 }
 
 interface Placement {
@@ -253,10 +276,10 @@ class Nester {
   }
 
   /** The best spot for one part on one sheet over its turns, or null. */
-  bestOn(state: SheetState, part: Prepared): Placement | null {
+  bestOn(state: SheetState, part: Prepared, turns = part.turns): Placement | null {
     if (part.area > state.free) return null
     let best: { placement: Placement; score: [number, number] } | null = null
-    for (const turn of part.turns) {
+    for (const turn of turns) {
       const shape = part.shapes.get(turn)!
       const fit = innerFit(shape.bounds, this.sheet)
       if (!fit) continue
@@ -304,6 +327,20 @@ function refuseTooLarge(prepared: Prepared[], sheet: NestSheetInput): void {
   }
 }
 
+/** An order must hold each part's index as often as its count, with allowed turns only. */
+function checkOrder(order: NestStep[], parts: NestPartInput[], prepared: Prepared[]): void {
+  const seen = parts.map(() => 0)
+  for (const step of order) {
+    const p = prepared[step.part]
+    if (!p) throw new RangeError(`The order names part ${step.part + 1}, which is not given.`)
+    if (step.turn !== undefined && !p.turns.includes(step.turn)) throw new RangeError(`Part ${step.part + 1} may not turn ${step.turn} degrees.`)
+    seen[step.part]!++
+  }
+  seen.forEach((n, i) => {
+    if (n !== parts[i]!.count) throw new RangeError(`The order places part ${i + 1} ${n} times; its count is ${parts[i]!.count}.`)
+  })
+}
+
 function placedPart(p: Placement): PlacedPart {
   const [dx, dy] = p.at
   return {
@@ -317,6 +354,8 @@ function placedPart(p: Placement): PlacedPart {
 /** A nesting in progress that more parts can be tried against (what-if questions). */
 export interface Nesting {
   result: NestResult
+  /** Every copy in the order placed, with its turn, position and sheet index (NestOptions.order replays them). */
+  steps: NestStep[]
   /**
    * Would these further copies of the parts given (index and how many) all
    * still fit on the sheets already used, without a new one?
@@ -333,44 +372,54 @@ export function* nestSteps(parts: NestPartInput[], sheet: NestSheetInput, option
   checkInputs(parts, sheet)
   const prepared = parts.map((p, i) => prepare(i, p.outline, sheet, options))
   refuseTooLarge(prepared.filter((p, i) => parts[i]!.count > 0), sheet)
-  const queue: Prepared[] = []
-  for (const p of [...prepared].sort((a, b) => b.area - a.area || a.index - b.index)) {
-    for (let k = 0; k < parts[p.index]!.count; k++) queue.push(p)
+  const queue: NestStep[] = options.order ?? []
+  if (options.order) checkOrder(options.order, parts, prepared)
+  else for (const p of [...prepared].sort((a, b) => b.area - a.area || a.index - b.index)) {
+    for (let k = 0; k < parts[p.index]!.count; k++) queue.push({ part: p.index })
   }
+  const steps: NestStep[] = []
   const nester = new Nester(sheet)
   const sheets: SheetState[] = []
   const usable = (sheet.width - 2 * sheet.margin) * (sheet.height - 2 * sheet.margin)
   const started = Date.now()
   let done = 0
-  for (const part of queue) {
+  for (const step of queue) {
     if (options.timeLimit !== undefined && Date.now() - started > options.timeLimit) {
       throw new NestTimeoutError(done, queue.length, options.timeLimit)
     }
+    const part = prepared[step.part]!
+    const turns = step.turn === undefined ? part.turns : [step.turn]
     let placement: Placement | null = null
     let target: SheetState | undefined
+    if (step.at && step.sheet !== undefined) {
+      while (sheets.length <= step.sheet) sheets.push({ placed: [], free: usable })
+      placement = { prepared: part, turn: turns[0]!, at: step.at }
+      target = sheets[step.sheet]
+    }
     for (const s of sheets) {
-      placement = nester.bestOn(s, part)
-      if (placement) {
-        target = s
-        break
-      }
+      if (placement) break
+      placement = nester.bestOn(s, part, turns)
+      if (placement) target = s
     }
     if (!placement) {
       target = { placed: [], free: usable }
       sheets.push(target)
-      placement = nester.bestOn(target, part)
+      // A turn fixed by the order may not fit at all: then the part's other turns.
+      placement = nester.bestOn(target, part, turns) ?? nester.bestOn(target, part)
       // refuseTooLarge guarantees an empty sheet takes every part.
       if (!placement) throw new Error(`Part ${part.index + 1} did not fit an empty sheet.`)
     }
     target!.placed.push(placement)
     target!.free -= part.area
+    steps.push({ part: part.index, turn: placement.turn, at: placement.at, sheet: sheets.indexOf(target!) })
     done++
-    options.onProgress?.(done, queue.length)
+    options.onProgress?.(done, queue.length, steps[done - 1]!)
     yield
   }
   const result: NestResult = { sheets: sheets.map((s) => ({ parts: s.placed.map(placedPart) })) }
   return {
     result,
+    steps,
     fitsMore(extra) {
       const trial = sheets.map((s) => ({ placed: [...s.placed], free: s.free }))
       for (const { part: index, count } of extra) {
