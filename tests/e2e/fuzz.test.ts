@@ -46,7 +46,7 @@ const db = postgres(inject('databaseUrl'), { max: 1, onnotice: () => {} })
 
 // Tables whose rows a refused request may legitimately add: failed sign-ins
 // (counted on purpose), and server-side sessions.
-const SKIP_TABLES = /sign_in_limits|session/i
+const SKIP_TABLES = /sign_in_limits|rate_limits|session/i
 
 /** A hash of every row of every table: equal before and after means nothing was stored or changed. */
 async function fingerprint(): Promise<string> {
