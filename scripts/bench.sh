@@ -11,7 +11,7 @@ npx tsx scripts/migrate.ts >/dev/null
 npx tsx scripts/seed.ts >/dev/null
 
 for bench in scripts/bench/*.ts; do
-  case "$(basename "$bench")" in canvas.ts|load.ts|export-load.ts) continue ;; esac
+  case "$(basename "$bench")" in canvas.ts|load.ts|export-load.ts|accounts-load.ts) continue ;; esac
   echo "== $(basename "$bench" .ts)"
   npx tsx "$bench"
   echo
@@ -25,6 +25,9 @@ npx tsx scripts/bench/load.ts
 echo
 echo "== export-load"
 npx tsx scripts/bench/export-load.ts
+echo
+echo "== accounts-load"
+npx tsx scripts/bench/accounts-load.ts
 echo
 echo "== canvas"
 npx tsx scripts/bench/canvas.ts

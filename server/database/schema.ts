@@ -125,6 +125,20 @@ export const signInLimits = pgTable('sign_in_limits', {
   check('sign_in_limits_failures_nonnegative', sql`${t.failures} >= 0`),
 ])
 
+// Counted limits on what a person may make the server do in a window (mail
+// to one recipient, mail by one member, comments, share downloads): one row
+// per key, raised by one atomic INSERT ... ON CONFLICT DO UPDATE, so parallel
+// requests cannot pass the cap (server/services/rate-limits.ts).
+export const rateLimits = pgTable('rate_limits', {
+  key: text('key').primaryKey(),
+  count: integer('count').notNull().default(0),
+  /** When the current window ends and the count starts again from zero. */
+  windowEnd: timestamp('window_end', { withTimezone: true }).notNull(),
+}, t => [
+  index('rate_limits_window_end_idx').on(t.windowEnd),
+  check('rate_limits_count_nonnegative', sql`${t.count} >= 0`),
+])
+
 // --- Uploads and the register of built units and patterns ---
 
 export const attachmentKindEnum = pgEnum('attachment_kind', ['image', 'pdf'])

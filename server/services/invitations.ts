@@ -53,6 +53,13 @@ export async function listPendingInvitations(db: Database, shopId: string) {
   return rows.map(r => ({ ...r, expired: r.expiresAt.getTime() <= now }))
 }
 
+/** The address of a pending invitation of the shop, or null. */
+export async function pendingInvitationEmail(db: Database, shopId: string, id: string): Promise<string | null> {
+  const [row] = await db.select({ email: invitations.email }).from(invitations)
+    .where(and(eq(invitations.id, id), eq(invitations.shopId, shopId), isNull(invitations.acceptedAt), isNull(invitations.withdrawnAt)))
+  return row?.email ?? null
+}
+
 /** A fresh link for a pending invitation (the old link stops working) and another seven days. */
 export async function renewInvitation(db: Database, actor: Actor, id: string): Promise<{ email: string; role: ShopRole; token: string; shopName: string } | null> {
   const { token, hash } = newToken()
@@ -95,26 +102,34 @@ export async function describeInvitation(db: Database, token: string) {
   const state = stateOf(row)
   if (!row || state !== 'open') return { state } as const
   const shop = await db.query.shops.findFirst({ columns: { name: true }, where: eq(shops.id, row.shopId) })
-  const account = await db.query.users.findFirst({ columns: { id: true }, where: sql`lower(${users.email}) = ${row.email}` })
-  return { state, email: row.email, role: row.role, shopName: shop?.name ?? '', hasAccount: !!account, expiresAt: row.expiresAt } as const
+  // Whether the address already has an account is not said: the page offers both ways and the server picks.
+  return { state, email: row.email, role: row.role, shopName: shop?.name ?? '', expiresAt: row.expiresAt } as const
 }
 
 export type AcceptResult =
   | { ok: true; userId: string; shopId: string; joined: 'new-account' | 'existing-account' }
-  | { ok: false; reason: InvitationState | 'wrong-password' | 'name-required' }
+  | { ok: false; reason: InvitationState | 'name-required' | 'sign-in-required' }
+  | { ok: false; reason: 'other-account'; signedInAs: string }
   | { ok: false; reason: 'weak-password'; message: string }
 
 /**
  * Accepts an invitation once. The row is locked, so two tabs racing with one
- * link make one account at most. An address that already has an account
- * joins the shop with it (after proving its password) instead of a second account.
+ * link make one account at most.
+ *
+ * No password of an existing account is ever checked here (that would be a
+ * second, unlimited sign-in): an address that already has an account joins
+ * only from a session of that account, made through the limited sign-in.
+ * Signed in as anyone else, nothing happens and the caller is told so, to
+ * ask the person; the session is never swapped behind their back. Without a
+ * session, a new account is made for the invited address.
  */
 export async function acceptInvitation(
   db: Database,
   hasher: Hasher,
   token: string,
-  input: { name?: string; password: string },
+  input: { name?: string; password?: string },
   newPassword: { safeParse(v: unknown): { success: boolean; error?: { issues: { message: string }[] } } },
+  signedIn: { userId: string; email: string } | null,
 ): Promise<AcceptResult> {
   return db.transaction(async (tx) => {
     const [row] = await tx.select().from(invitations).where(eq(invitations.tokenHash, hashToken(token))).for('update')
@@ -122,15 +137,17 @@ export async function acceptInvitation(
     if (!row || state !== 'open') return { ok: false, reason: state } as const
     let user = await tx.query.users.findFirst({ where: sql`lower(${users.email}) = ${row.email}` })
     let joined: 'new-account' | 'existing-account' = 'existing-account'
-    if (user) {
-      if (!(await hasher.verify(user.passwordHash, input.password))) return { ok: false, reason: 'wrong-password' } as const
+    if (signedIn) {
+      if (!user || user.id !== signedIn.userId) return { ok: false, reason: 'other-account', signedInAs: signedIn.email } as const
+    }
+    else if (user) {
+      return { ok: false, reason: 'sign-in-required' } as const
     }
     else {
       if (!input.name) return { ok: false, reason: 'name-required' } as const
-      // A new account's password meets the rules; an existing one only has to match.
       const rule = newPassword.safeParse(input.password)
       if (!rule.success) return { ok: false, reason: 'weak-password', message: rule.error?.issues[0]?.message ?? 'Choose a longer password' } as const
-      const [created] = await tx.insert(users).values({ email: row.email, name: input.name, passwordHash: await hasher.make(input.password) }).returning()
+      const [created] = await tx.insert(users).values({ email: row.email, name: input.name, passwordHash: await hasher.make(input.password!) }).returning()
       user = created
       joined = 'new-account'
     }

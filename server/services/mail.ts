@@ -5,8 +5,10 @@ export interface OutgoingMail {
   subject: string
   text: string
   html: string
-  /** The shop the message is about; the development mail page lists a lead only their shop's messages. */
+  /** The shop the message is about. */
   shopId?: string
+  /** The member who sent it; a mail viewer lists a member only the messages they sent themselves. Untagged messages (password resets) are listed to no one. */
+  senderId?: string
 }
 
 export class MailNotConfigured extends Error {
@@ -35,7 +37,10 @@ export async function sendMail(mail: OutgoingMail): Promise<void> {
     subject: mail.subject,
     text: mail.text,
     html: mail.html,
-    headers: mail.shopId ? { 'X-Rootplate-Shop': mail.shopId } : undefined,
+    headers: {
+      ...(mail.shopId ? { 'X-Rootplate-Shop': mail.shopId } : {}),
+      ...(mail.senderId ? { 'X-Rootplate-Sender': mail.senderId } : {}),
+    },
   })
 }
 

@@ -1,5 +1,5 @@
 // Comments on a revision: any member of the shop may read and leave them.
-import { and, asc, eq } from 'drizzle-orm'
+import { and, asc, eq, sql } from 'drizzle-orm'
 import { z } from 'zod'
 import type { Database } from '../utils/db'
 import { textField } from '../utils/validation'
@@ -26,15 +26,37 @@ async function revisionInShop(db: Pick<Database, 'select'>, shopId: string, revi
   return row ?? null
 }
 
-/** The revision's comments, oldest first; null when the revision is not the shop's. */
-export async function listComments(db: Database, shopId: string, revisionId: string): Promise<CommentRow[] | null> {
+export const COMMENT_PAGE_MAX = 200
+
+export const commentPageSchema = z.object({
+  /** The last comment of the previous page: the next page starts after it. */
+  after: z.uuid('Give the id of the last comment you have').optional(),
+  limit: z.string().regex(/^\d{1,3}$/, 'Give a whole number from 1 to 200').transform(Number).pipe(z.number().min(1, 'At least 1').max(COMMENT_PAGE_MAX, `At most ${COMMENT_PAGE_MAX} at a time`)).default(100),
+})
+
+/**
+ * One page of the revision's comments, oldest first, starting after the
+ * comment `after` (keyset: creation time, then id); `more` says whether
+ * another page follows. Null when the revision (or `after`) is not the shop's.
+ */
+export async function listComments(db: Database, shopId: string, revisionId: string, page: { after?: string; limit: number } = { limit: 100 }): Promise<{ comments: CommentRow[]; more: boolean } | null> {
   if (!await revisionInShop(db, shopId, revisionId)) return null
+  const inRevision = and(eq(revisionComments.revisionId, revisionId), eq(revisionComments.shopId, shopId))
+  let start
+  if (page.after) {
+    const [mark] = await db.select({ id: revisionComments.id }).from(revisionComments).where(and(inRevision, eq(revisionComments.id, page.after)))
+    if (!mark) return null
+    // Compared in the database: its timestamps carry microseconds, a JavaScript Date only milliseconds.
+    start = sql`(${revisionComments.createdAt}, ${revisionComments.id}) > (select c.created_at, c.id from revision_comments c where c.id = ${page.after})`
+  }
   const rows = await db.select({ id: revisionComments.id, body: revisionComments.body, createdAt: revisionComments.createdAt, authorId: revisionComments.authorId, authorName: users.name })
     .from(revisionComments)
     .leftJoin(users, eq(users.id, revisionComments.authorId))
-    .where(and(eq(revisionComments.revisionId, revisionId), eq(revisionComments.shopId, shopId)))
+    .where(and(inRevision, start))
     .orderBy(asc(revisionComments.createdAt), asc(revisionComments.id))
-  return rows.map(r => ({ id: r.id, body: r.body, createdAt: r.createdAt, author: { id: r.authorId, name: r.authorName } }))
+    .limit(page.limit + 1)
+  const more = rows.length > page.limit
+  return { comments: rows.slice(0, page.limit).map(r => ({ id: r.id, body: r.body, createdAt: r.createdAt, author: { id: r.authorId, name: r.authorName } })), more }
 }
 
 /** Leaves a comment and records it in the shop's activity; null when the revision is not the shop's. */

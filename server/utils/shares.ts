@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
 import { openShare, type OpenShare } from '../services/shares'
+import { limit, RATE_LIMITS, takeLimits } from '../services/rate-limits'
 
 /** The share named by the route's token: 404 when unknown or withdrawn, 410 once expired. It reaches one revision and nothing else. */
 export async function sharedOnly(event: H3Event): Promise<OpenShare> {
@@ -8,6 +9,20 @@ export async function sharedOnly(event: H3Event): Promise<OpenShare> {
   if (found.state === 'expired') throw createError({ statusCode: 410, statusMessage: 'Gone', message: 'This link has expired. Ask the shop that sent it for a new one.' })
   if (found.state !== 'open') throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This link is not known or was withdrawn by the shop.' })
   return found.share
+}
+
+/**
+ * The share of a download route, counted against the link (however many
+ * people use it) and the client's address (however many links it holds):
+ * 429 with Retry-After past either.
+ */
+export async function sharedForDownload(event: H3Event): Promise<OpenShare> {
+  const share = await sharedOnly(event)
+  refuseOverLimit(event, await takeLimits(useDb(), [
+    limit(`share-download:${share.id}`, RATE_LIMITS.downloadsPerShare),
+    limit(`share-download-from:${clientAddress(event)}`, RATE_LIMITS.downloadsPerAddress),
+  ]), 'Many downloads through this link in a short time')
+  return share
 }
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, c => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)

@@ -15,6 +15,26 @@ export const acceptedTypes = {
 } as const
 export type AcceptedType = keyof typeof acceptedTypes
 
+/** Bidirectional controls (embeddings, overrides, isolates, marks): they make "gpj.exe" read as "exe.jpg". */
+const BIDI_CONTROLS = /[\u061C\u200E\u200F\u202A-\u202E\u2066-\u2069]/g
+const LONE_SURROGATES = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g
+export const MAX_NAME_CHARS = 200
+
+/** The text with every lone UTF-16 half made U+FFFD. */
+export const wellFormed = (s: string) => s.replace(LONE_SURROGATES, '\uFFFD')
+
+/**
+ * The name kept for an upload: path separators and control characters become
+ * "_", bidirectional controls are dropped, a lone UTF-16 half becomes U+FFFD,
+ * and the name is cut to 200 characters, never inside a character (a cut
+ * through a surrogate pair would leave half a symbol that no header can carry).
+ */
+export function storedFileName(raw: string | undefined): string {
+  const cleaned = wellFormed(raw || 'upload').replace(BIDI_CONTROLS, '').replace(/[\\/\u0000-\u001f\u007f]/g, '_')
+  const cut = Array.from(cleaned).slice(0, MAX_NAME_CHARS).join('')
+  return cut || 'upload'
+}
+
 export interface UploadedFile { name: string; bytes: Uint8Array; contentType: AcceptedType; kind: 'image' | 'pdf' }
 
 function tooLarge(): Error {
@@ -61,6 +81,6 @@ export async function readUpload(event: H3Event): Promise<UploadedFile> {
     })
   }
   const contentType = found.mime as AcceptedType
-  const name = (file.name || 'upload').replace(/[\\/\u0000-\u001f]/g, '_').slice(0, 200)
+  const name = storedFileName(file.name)
   return { name, bytes, contentType, kind: acceptedTypes[contentType] }
 }

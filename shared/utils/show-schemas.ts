@@ -1,6 +1,7 @@
 // Request bodies of the show and design-details routes, shared so a form can
 // check what the server will check.
 import { z } from 'zod'
+import { calendarDay } from './date-schemas'
 
 const NUL_OR_LONE_SURROGATE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/
 const text = (max: number, tooLong: string) => z.string({ error: 'Expected text' }).trim().max(max, tooLong)
@@ -8,7 +9,7 @@ const text = (max: number, tooLong: string) => z.string({ error: 'Expected text'
 
 export const showName = text(120, 'Keep the show name under 120 characters').pipe(z.string().min(1, 'Give the show a name'))
 const venue = text(120, 'Keep the venue under 120 characters').nullish().transform(v => v || null)
-const opensOn = z.iso.date({ error: 'Give the opening date as YYYY-MM-DD' }).nullish()
+const opensOn = calendarDay('Give the opening date as YYYY-MM-DD').nullish()
 
 export const newShowSchema = z.object({ name: showName, venue, opensOn }).strict()
 

@@ -1,7 +1,9 @@
 import { z } from 'zod'
 import { settableStatuses, unitKinds, unitStatuses } from './units'
+import { calendarDay } from './date-schemas'
 
-const isoDate = (what: string) => z.iso.date({ error: `${what}: use a date such as 2026-03-14` })
+const isoDate = (what: string) => calendarDay(`${what}: use a date such as 2026-03-14`)
+const NUL_OR_LONE_SURROGATE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/
 const text = (max: number, what: string) => z.string().trim().max(max, `Keep ${what} under ${max} characters`)
 
 export const unitCreateSchema = z.object({
@@ -28,7 +30,8 @@ export const unitFilterSchema = z.object({
   status: z.enum(unitStatuses, { error: 'Unknown stage' }).optional(),
   kind: z.enum(unitKinds, { error: 'Unknown kind' }).optional(),
   designId: z.uuid({ error: 'Unknown design' }).optional(),
-  q: text(100, 'the search').optional(),
+  // PostgreSQL refuses NUL in text and a lone UTF-16 half is no character: a search holding either finds nothing and says so.
+  q: text(100, 'the search').refine(s => !NUL_OR_LONE_SURROGATE.test(s), 'Remove the invisible control character or broken symbol from the search').optional(),
 })
 
 export const loanSchema = z.object({

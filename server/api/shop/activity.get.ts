@@ -1,10 +1,11 @@
 import { z } from 'zod'
 import { listActivity } from '../../services/activity'
+import { calendarMoment } from '../../../shared/utils/date-schemas'
 
 const schema = z.object({
   design: z.uuid('Pick a design from the list').optional(),
   person: z.uuid('Pick a person from the list').optional(),
-  before: z.iso.datetime({ offset: true, error: 'Must be a date and time' }).transform(v => new Date(v)).optional(),
+  before: calendarMoment('Must be a date and time').optional(),
   limit: z.coerce.number().int().min(1).max(200, 'At most 200 at a time').default(50),
 })
 

@@ -17,6 +17,6 @@ export default defineEventHandler(async (event) => {
   const chosen = ids ? all.filter(u => ids.includes(u.id)) : all
   const pdf = await renderLabelSheet(chosen.map(u => ({
     id: u.id, label: u.label, kind: u.kind, status: u.status, designName: u.designName, revisionNumber: u.revisionNumber, sizeLabel: u.sizeLabel,
-  })), { origin: getRequestURL(event).origin, font: await templateFont() })
+  })), { origin: appOrigin(), font: await templateFont() })
   return sendFile(event, pdf, 'application/pdf', 'unit-labels.pdf')
 })

@@ -23,15 +23,16 @@ export async function startBuiltServer(env: Record<string, string>): Promise<{ b
   const entry = `${root}.output/server/index.mjs`
   if (!existsSync(entry)) throw new Error('No build found: run `npm test` (it builds), or `npx nuxt build` first')
   const port = await freePort()
+  const baseUrl = `http://127.0.0.1:${port}`
   let output = ''
   const child = spawn(process.execPath, [entry], {
     cwd: root,
-    env: { ...process.env, ...env, PORT: String(port), HOST: '127.0.0.1' },
+    // Links in mail and share answers are built from APP_URL: the address the tests use.
+    env: { ...process.env, APP_URL: baseUrl, ...env, PORT: String(port), HOST: '127.0.0.1' },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   child.stdout?.on('data', (d: Buffer) => { output += d.toString() })
   child.stderr?.on('data', (d: Buffer) => { output += d.toString() })
-  const baseUrl = `http://127.0.0.1:${port}`
   const stop = async () => {
     if (child.exitCode !== null) return
     child.kill('SIGTERM')
