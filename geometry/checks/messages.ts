@@ -210,7 +210,7 @@ function groupText(g: Group, u: MessageUnits): string {
     case 'root-narrow':
       return `${n > 1 ? `${n} roots are` : 'A root is'} as narrow as ${L(min(g, 'width'))} halfway out, less than the ${L(first(g, 'least'))} least root width: plywood that narrow snaps across the grain.`
     case 'larger-than-sheet':
-      return `The plate does not fit a ${L(first(g, 'sheetWidth'))} x ${L(first(g, 'sheetLength'))} sheet in any orientation, allowing ${L(first(g, 'edgeMargin'))} at the sheet's edges and a ${L(first(g, 'kerf'))} kerf: each layer must be pieced.`
+      return `The plate does not fit a ${L(first(g, 'sheetWidth'))} x ${L(first(g, 'sheetLength'))} sheet in any orientation, keeping ${L(first(g, 'edgeMargin'))} clear at the sheet's edges: each layer must be pieced.`
     default:
       // A code this list does not know yet: the geometry's own sentence, rather than nothing.
       return g.findings[0]!.f.message

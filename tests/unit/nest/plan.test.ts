@@ -6,7 +6,7 @@ import DxfParser from 'dxf-parser'
 import { PDFDocument } from 'pdf-lib'
 import { buildPlate, deriveForTube, inchesToMm, plateParamsSchema, presetParams, renderCutDxf } from '../../../geometry'
 import { planSheets, planSheetsAsync, renderLayoutDxf, renderLayoutPdf, type PlanEntry } from '../../../geometry/nest'
-import { shoelace, type Pt } from './checks'
+import { gap, shoelace, type Pt } from './checks'
 
 // 48 x 96 in (PS 1-19); 1 in = 25.4 mm (NIST SP 811).
 const SHEET = { width: inchesToMm(48), height: inchesToMm(96), margin: inchesToMm(0.5), kerf: inchesToMm(0.25), thickness: inchesToMm(0.703) }
@@ -56,6 +56,36 @@ describe('planSheets', () => {
     const plan = await planSheetsAsync([e], { sheet: tight, workflow: 'panels' })
     expect(plan.layouts).toHaveLength(1)
     expect(plan.spare).toEqual([false])
+  })
+
+  it('keeps the kerf between every two parts of every sheet and every part inside the margin (brute-force distances)', () => {
+    // Eight plates of two sizes, two layers each, cut first: 32 parts, packed as tight as the nester can.
+    const entries = [column(2, 4, 10.5), column(2, 4, 14.5)]
+    const plan = planSheets(entries, { sheet: SHEET, workflow: 'layers' })
+    let pairs = 0
+    let closest = Infinity
+    for (const layout of plan.layouts) {
+      for (const p of layout.parts) {
+        for (const [x, y] of p.outline) {
+          // The polygon engine works to the micrometre.
+          expect(x).toBeGreaterThanOrEqual(SHEET.margin - 1e-3)
+          expect(y).toBeGreaterThanOrEqual(SHEET.margin - 1e-3)
+          expect(x).toBeLessThanOrEqual(SHEET.width - SHEET.margin + 1e-3)
+          expect(y).toBeLessThanOrEqual(SHEET.height - SHEET.margin + 1e-3)
+        }
+      }
+      for (let i = 0; i < layout.parts.length; i++) {
+        for (let j = i + 1; j < layout.parts.length; j++) {
+          const d = gap(layout.parts[i]!.outline as Pt[], layout.parts[j]!.outline as Pt[], 2 * SHEET.kerf)
+          closest = Math.min(closest, d)
+          pairs++
+          expect(d).toBeGreaterThanOrEqual(SHEET.kerf - 5e-3)
+        }
+      }
+    }
+    expect(pairs).toBeGreaterThan(0)
+    // Packed tight, not merely apart: the closest two parts are within a few millimetres of the kerf.
+    expect(closest).toBeLessThan(SHEET.kerf + 6)
   })
 
   it('writes a sheet DXF whose parts are the plate\'s cut file turned and moved, and a PDF page per sheet', async () => {
