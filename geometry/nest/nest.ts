@@ -289,7 +289,11 @@ class Nester {
       const free = differenceRings([fit], blocked)
       for (const ring of free) {
         if (signedArea(ring) <= 0) continue
-        for (const [x, y] of ring) {
+        for (const [rx, ry] of ring) {
+          // The engine rounds to the micrometre: clamp back inside the margin, so a part at the
+          // margin is exactly there and never half a micrometre past it.
+          const x = Math.min(Math.max(rx, fit[0]![0]), fit[2]![0])
+          const y = Math.min(Math.max(ry, fit[0]![1]), fit[2]![1])
           // Lowest top edge first, then furthest left: rows build up from the bottom and leave one
           // clear offcut at the far end.
           const score: [number, number] = [Math.round((y + shape.bounds.maxY) * 10) / 10, x + shape.bounds.maxX]
