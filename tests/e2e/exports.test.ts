@@ -495,7 +495,15 @@ describe('the cut files read back', () => {
     for (const d of [routed, sawn]) {
       const saws = /Hole saws: (.*)\./.exec(notes(d))
       expect(saws).not.toBeNull()
-      for (const m of marks) expect(saws![1]).toContain(`${m.layer.slice('RP-HOLESAW-'.length, -2)} in`)
+      // The layer's decimal inches as a shop fraction, by hand: 4.25 -> 4-1/4 in, 2 -> 2 in.
+      for (const m of marks) {
+        const d = Number(m.layer.slice('RP-HOLESAW-'.length, -2))
+        const whole = Math.floor(d)
+        let num = Math.round((d - whole) * 32)
+        let den = 32
+        while (num > 0 && num % 2 === 0) { num /= 2; den /= 2 }
+        expect(saws![1]).toContain(num ? `${whole}-${num}/${den} in` : `${whole} in`)
+      }
     }
     // Different files, different cache entries.
     expect(sawRes.text).not.toBe(routedRes.text)
