@@ -86,16 +86,40 @@ const casterSchema = z.object({
   racewayDiameter: length(10, inch(8), inch(1.5)),
 })
 
-/** The screws or bolts that hold each pan's rim down through the rabbet floor: the holes really drilled through the plywood round a pocket. */
+/** How the pans' rims are held down. */
+export const FASTENER_KINDS = ['screw', 'bolt-tnut', 'bolt-counterbore'] as const
+export type FastenerKind = (typeof FASTENER_KINDS)[number]
+
+/**
+ * The screws or bolts that hold each pan's rim down into the rabbet floor:
+ * wood screws (no hole cut; they stay in the wood above the bottom face), or
+ * through-bolts in holes drilled right through, with a T-nut driven into the
+ * underside or a nut in a counterbore from the underside. Revisions saved
+ * before the kind existed read as screws.
+ */
 const fastenerSchema = z.object({
+  kind: z.enum(FASTENER_KINDS).default('screw'),
   /** Fasteners per pan. */
   count: z.number().int().min(2).max(12).default(4),
-  /** Hole diameter, mm: #6 screw to 1/2 in bolt. Default 1/4 in (from memory). */
+  /** Screw shank or bolt hole diameter, mm: #6 screw to 1/2 in bolt. Default 1/4 in (from memory). */
   diameter: length(3, inch(0.5), inch(0.25)),
   /** Diameter of the circle they stand on, mm; left out, the middle of the rabbet ring. */
   boltCircleDiameter: z.number().finite().min(10).max(inch(20)).optional(),
+  /** How far the screw or bolt reaches below the rabbet floor (the rim's underside), mm. Default 3/4 in (a #10 x 1 in screw through a 1/8 in rim less its head, from memory). */
+  length: length(3, inch(8), inch(0.75)),
+  /** How far a T-nut's flange stands proud of the underside, mm; 0 when it is let in flush. Default 1/16 in (from memory). */
+  tnutFlange: length(0, inch(0.5), inch(1 / 16)),
+  /** Counterbore for the nut and washer, from the underside, mm. Default 3/4 in across (a 1/4 in nut and washer, from memory), 3/8 in deep. */
+  counterboreDiameter: length(inch(0.25), inch(2), inch(0.75)),
+  counterboreDepth: length(0, inch(1.5), inch(0.375)),
+  /**
+   * Least wood between a fastener's hole and the pocket's edge or the
+   * rabbet's edge, mm. The plate's own least wood (3/4 in) cannot fit in a
+   * 1/2 in rim ring, so fasteners have their own: default 1/8 in (from memory;
+   * about half a 1/4 in screw's diameter).
+   */
+  edgeWood: length(0, inch(1), inch(0.125)),
 })
-
 /** What the shop cuts with and on: the cutter sets the tightest inside bend, the sheet and its allowances the largest plate. */
 const cuttingSchema = z.object({
   /** Router bit (or CNC end mill) diameter, mm; a round cutter leaves inside bends no tighter than its radius. Default 1/4 in. */

@@ -35,6 +35,8 @@ export interface Fastener {
   x: number
   y: number
   diameter: number
+  /** Drilled right through the plate (bolts); false for screws into the rabbet floor, which need no hole cut. */
+  through: boolean
 }
 
 /** The stepped ring round a pocket where the pan's rim sits flush. */

@@ -5,7 +5,7 @@
 import type { PlateParams } from '../params'
 import type { Finding, Point } from '../types'
 import type { OutlineShape } from '../outline/shape'
-import { fitsRectangle } from '../math/polygon'
+import { FIT_EPSILON, fitTurn } from '../math/polygon'
 
 const mm = (v: number) => `${Math.round(v * 10) / 10} mm`
 
@@ -189,22 +189,24 @@ export function rootFindings(params: PlateParams, shape: OutlineShape, outline: 
 }
 
 /**
- * Whether the plate fits the sheet with the edge margin all round and half
- * the kerf round the part: the part plus its kerf must fit the usable
- * rectangle (sheet less two margins). Any plate inside a circle that fits the
- * usable width fits without turning.
+ * Whether the plate fits the sheet inside its edge margin, in some turn: the
+ * rule the nester (geometry/nest/nest.ts) places parts by, through the same
+ * fitTurn. The margin is the strip no part may enter; the kerf is kept
+ * between parts, so it plays no part for one plate alone (it is in the
+ * message, as the nester's spacing). No slack beyond floating-point noise:
+ * a part that fits by the user's own figures fits. Any plate inside a circle
+ * that fits the usable width fits without turning.
  */
 export function sheetFindings(params: PlateParams, outline: readonly Point[], enclosingRadius: number): Finding[] {
   const c = params.cutting
   const usableW = c.sheetWidth - 2 * c.edgeMargin
   const usableL = c.sheetLength - 2 * c.edgeMargin
-  const need = 2 * enclosingRadius + c.kerf
-  if (need <= usableW) return []
-  if (usableW > c.kerf && usableL > c.kerf && fitsRectangle(outline, usableW - c.kerf, usableL - c.kerf, 2 * enclosingRadius)) return []
+  if (2 * enclosingRadius <= usableW + FIT_EPSILON) return []
+  if (usableW > 0 && usableL > 0 && fitTurn(outline, usableW, usableL) !== null) return []
   return [{
     code: 'larger-than-sheet',
     severity: 'warning',
-    message: `The plate does not fit a ${mm(c.sheetWidth)} x ${mm(c.sheetLength)} sheet in any orientation, allowing ${mm(c.edgeMargin)} at the sheet's edges and a ${mm(c.kerf)} kerf: each layer must be pieced.`,
+    message: `The plate does not fit a ${mm(c.sheetWidth)} x ${mm(c.sheetLength)} sheet in any orientation, keeping ${mm(c.edgeMargin)} clear at the sheet's edges: each layer must be pieced.`,
     field: 'lobes.reach',
     values: { sheetWidth: c.sheetWidth, sheetLength: c.sheetLength, edgeMargin: c.edgeMargin, kerf: c.kerf, enclosingDiameter: 2 * enclosingRadius },
   }]

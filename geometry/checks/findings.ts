@@ -7,7 +7,7 @@ import type { CasterMount, Fastener, Finding, Hole, Point, Rabbet, TubeNotch } f
 import type { OutlineShape } from '../outline/shape'
 import { edgeGap, lensArea, centreDistance, type Circle } from '../math/circles'
 import { probeRing } from '../math/polygon'
-import type { FloorStack } from './floor'
+import { fastenerFloorFindings, type FloorStack } from './floor'
 import { insideRadiusFindings, rootFindings, sheetFindings } from './cutting'
 import { panFindings } from './pans'
 
@@ -200,6 +200,7 @@ export function plateFindings(input: FindingsInput): Finding[] {
     ...trunkWallFindings(input),
     ...casterFindings(input),
     ...floorFindings(input),
+    ...fastenerFloorFindings(input.params, input.stack),
     ...panFindings(input),
     ...cuttingFindings(input),
   ]

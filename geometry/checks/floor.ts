@@ -21,6 +21,7 @@
 // (about 11/32 in).
 
 import type { PlateParams } from '../params'
+import type { Finding } from '../types'
 
 export interface FloorStack {
   /** Plate thickness, mm. */
@@ -56,4 +57,67 @@ export function floorStack(params: PlateParams): FloorStack {
   }
   const swivelRadius = wheelReach > 0 ? Math.hypot(wheelReach, c.treadWidth / 2) + c.swivelClearance : 0
   return { thickness, seatHeight, floorGap, wheelReach, swivelRadius }
+}
+
+/**
+ * What the pan fasteners put below the plate's underside, mm (0 when nothing):
+ *   rabbet floor (wood under the rim) = T - rabbetDepth
+ *   a screw or bolt tip sticks out by  length - floor      (length: below the rim's underside)
+ *   a T-nut's flange stands proud by   tnutFlange           (0 when let in flush)
+ *   a nut in a counterbore sits inside the wood.
+ * Worked example (defaults, screws): floor = 35.7124 - 9.525 = 26.1874 mm; a
+ * 19.05 mm screw leaves 7.14 mm of wood under its tip: nothing projects.
+ */
+export function fastenerProjection(params: PlateParams): { projection: number; floor: number; tip: number; flange: number } {
+  const fp = params.fasteners
+  const floor = params.layers * params.sheetThickness - params.rabbetDepth
+  const tip = fp.length - floor
+  const flange = fp.kind === 'bolt-tnut' ? fp.tnutFlange : 0
+  return { projection: Math.max(0, tip, flange), floor, tip, flange }
+}
+
+/**
+ * Fasteners checked against the floor: anything below the plate must clear
+ * the floor gap (with the least floor gap to spare); a screw must not come
+ * through the underside; a bolt must reach its nut.
+ */
+export function fastenerFloorFindings(params: PlateParams, stack: FloorStack): Finding[] {
+  const mm = (v: number) => `${Math.round(v * 10) / 10} mm`
+  const fp = params.fasteners
+  const { projection, floor, tip } = fastenerProjection(params)
+  const found: Finding[] = []
+  if (fp.kind === 'screw' && tip > 0) {
+    found.push({
+      code: 'fastener-through',
+      severity: 'warning',
+      message: `The pan screws reach ${mm(fp.length)} below the rim, through the ${mm(floor)} of wood under it: their tips come ${mm(tip)} out of the underside. Use shorter screws, or bolts.`,
+      field: 'fasteners.length',
+      values: { length: fp.length, floor, tip },
+    })
+  }
+  if (fp.kind !== 'screw') {
+    const needed = floor - (fp.kind === 'bolt-counterbore' ? fp.counterboreDepth : 0)
+    if (fp.length < needed) {
+      found.push({
+        code: 'fastener-short',
+        severity: 'error',
+        message: `The pan bolts reach ${mm(fp.length)} below the rim, short of the ${mm(needed)} to their nut: they hold nothing. Use longer bolts.`,
+        field: 'fasteners.length',
+        values: { length: fp.length, needed },
+      })
+    }
+  }
+  if (projection > 0 && stack.floorGap - projection < params.minFloorGap) {
+    const drags = projection >= stack.floorGap
+    found.push({
+      code: 'fastener-below-plate',
+      severity: drags ? 'error' : 'warning',
+      message: drags
+        ? `The pan fasteners stand ${mm(projection)} below the plate, as much as or more than the ${mm(stack.floorGap)} floor gap: they drag on the floor.`
+        : `The pan fasteners stand ${mm(projection)} below the plate, leaving ${mm(stack.floorGap - projection)} to the floor, less than the ${mm(params.minFloorGap)} least floor gap.`,
+      field: 'fasteners.length',
+      values: { projection, floorGap: stack.floorGap, clearance: stack.floorGap - projection, minFloorGap: params.minFloorGap },
+    })
+  }
+  return found
 }

@@ -45,6 +45,7 @@ export const FIELD_LABELS: Record<string, string> = {
   'caster.boltSpacingY': 'Bolt spacing, short',
   'caster.racewayDiameter': 'Swivel raceway',
   'fasteners.boltCircleDiameter': 'Bolt circle',
+  'fasteners.length': 'Fastener length',
   'lobes.reach': 'Reach',
   'lobes.width': 'Width',
   'lobes.valley': 'Valley',
@@ -203,6 +204,14 @@ function groupText(g: Group, u: MessageUnits): string {
       return `The rabbet leaves ${L(first(g, 'wood'))} of plywood under the pan's rim, less than ${L(first(g, 'least'))}: too little for the rim's fasteners to bite and to carry the caster.`
     case 'fastener-off-rim':
       return `The pan-rim fasteners on a ${L(first(g, 'boltCircleDiameter'))} circle do not land in the rabbet floor between the pocket (${L(first(g, 'pocketDiameter'))}) and the rabbet's edge (${L(first(g, 'rabbetDiameter'))}).`
+    case 'fastener-edge-wood':
+      return `The pan-rim fastener holes leave ${L(first(g, 'wood'))} of wood to the pocket's or the rabbet's edge, less than the ${L(first(g, 'least'))} least wood for fasteners: the wood splits out.`
+    case 'fastener-through':
+      return `The pan screws' tips come ${L(first(g, 'tip'))} out of the plate's underside (${L(first(g, 'floor'))} of wood under the rim).`
+    case 'fastener-short':
+      return `The pan bolts reach ${L(first(g, 'length'))} below the rim, short of the ${L(first(g, 'needed'))} to their nut.`
+    case 'fastener-below-plate':
+      return `The pan fasteners stand ${L(first(g, 'projection'))} below the plate, leaving ${L(Math.max(0, first(g, 'clearance')))} to the floor (floor gap ${L(first(g, 'floorGap'))}, least ${L(first(g, 'minFloorGap'))}).`
     case 'inside-radius':
       return `${n > 1 ? `${n} inside bends of the outline are` : 'An inside bend of the outline is'} tighter than the ${L(first(g, 'bitDiameter'))} router bit can follow (down to a ${L(min(g, 'radius'))} radius; it leaves ${L(first(g, 'cutterRadius'))}).`
     case 'root-tip-sharp':
@@ -210,7 +219,7 @@ function groupText(g: Group, u: MessageUnits): string {
     case 'root-narrow':
       return `${n > 1 ? `${n} roots are` : 'A root is'} as narrow as ${L(min(g, 'width'))} halfway out, less than the ${L(first(g, 'least'))} least root width: plywood that narrow snaps across the grain.`
     case 'larger-than-sheet':
-      return `The plate does not fit a ${L(first(g, 'sheetWidth'))} x ${L(first(g, 'sheetLength'))} sheet in any orientation, allowing ${L(first(g, 'edgeMargin'))} at the sheet's edges and a ${L(first(g, 'kerf'))} kerf: each layer must be pieced.`
+      return `The plate does not fit a ${L(first(g, 'sheetWidth'))} x ${L(first(g, 'sheetLength'))} sheet in any orientation, keeping ${L(first(g, 'edgeMargin'))} clear at the sheet's edges: each layer must be pieced.`
     default:
       // A code this list does not know yet: the geometry's own sentence, rather than nothing.
       return g.findings[0]!.f.message

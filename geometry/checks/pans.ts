@@ -24,6 +24,9 @@ export const TUBE_BEARING = { warn: 0.5, error: 0.25 } as const
  */
 export const LEAST_RABBET_FLOOR = 12.7
 
+/** Float noise on the fastener wood figures, mm: the defaults leave exactly the least wood. */
+const FASTENER_WOOD_TOLERANCE = 1e-6
+
 /** Gap of 1/100 mm accepted before a pan counts as showing: float noise, not a visible edge. */
 const SHOW_TOLERANCE = 0.01
 
@@ -82,20 +85,39 @@ export function panFindings(input: FindingsInput): Finding[] {
     })
   }
 
-  // Fasteners must land in the rabbet floor: wholly outside the pocket's through-hole and inside the rabbet's edge.
+  // Fasteners must land in the rabbet floor, with at least the fasteners' least wood between each
+  // hole and the pocket's edge (a free edge) and between it and the rabbet's edge (the step the
+  // rim sits against).
+  const fp = params.fasteners
   const bc = fastenerCircleDiameter(params) / 2
-  const f = params.fasteners.diameter / 2
+  const f = fp.diameter / 2
   const inner = params.pocketDiameter / 2
   const outer = params.pocketDiameter / 2 + params.rabbetWidth
-  if (bc - f < inner || bc + f > outer) {
-    const first = input.fasteners[0]
+  const toPocket = bc - f - inner
+  const toEdge = outer - (bc + f)
+  const first = input.fasteners[0]
+  const at = first ? { at: { x: first.x, y: first.y, radius: f } } : {}
+  const holeIds = [...new Set(input.fasteners.map((x) => x.pocketId))]
+  if (toPocket < 0 || toEdge < 0) {
     found.push({
       code: 'fastener-off-rim',
       severity: 'error',
       message: `The pan-rim fasteners on a ${mm(2 * bc)} circle do not land in the rabbet floor between the pocket (${mm(2 * inner)}) and the rabbet's edge (${mm(2 * outer)}).`,
-      ...(first ? { at: { x: first.x, y: first.y, radius: f } } : {}),
+      ...at,
       field: 'fasteners.boltCircleDiameter',
       values: { boltCircleDiameter: 2 * bc, pocketDiameter: 2 * inner, rabbetDiameter: 2 * outer, fastenerDiameter: 2 * f },
+    })
+  } else if (Math.min(toPocket, toEdge) < fp.edgeWood - FASTENER_WOOD_TOLERANCE) {
+    const nearPocket = toPocket <= toEdge
+    found.push({
+      code: 'fastener-edge-wood',
+      severity: 'warning',
+      message: `The pan-rim fastener holes leave ${mm(Math.min(toPocket, toEdge))} of wood to the ${nearPocket ? "pocket's edge" : "rabbet's edge"}, less than the ${mm(fp.edgeWood)} least wood for fasteners: the wood splits out. Use smaller fasteners, a wider rabbet or move the bolt circle.`,
+      ...at,
+      holeIds,
+      // Room for the least wood on both sides: moving the circle mends it; otherwise the ring is too narrow.
+      field: toPocket + toEdge >= 2 * fp.edgeWood ? 'fasteners.boltCircleDiameter' : 'rabbetWidth',
+      values: { toPocket, toEdge, wood: Math.min(toPocket, toEdge), least: fp.edgeWood, fastenerDiameter: 2 * f },
     })
   }
   return found

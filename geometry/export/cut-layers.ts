@@ -5,7 +5,7 @@
 import type { Plate, Point } from '../types'
 import { assertExportUnits, fromMm, type ExportUnits } from './units'
 import { counterClockwise, flattenPath, simplifyClosed } from './polyline'
-import { assertPlateLayer, MirrorRabbetError, type PlateLayer } from './layers'
+import { assertOpeningCut, assertPlateLayer, MirrorRabbetError, type OpeningCut, type PlateLayer } from './layers'
 
 /** The outline polygon's guaranteed chord error (the geometry contract), mm. */
 export const OUTLINE_CHORD_ERROR = 0.1
@@ -38,6 +38,13 @@ export interface CutOptions {
   mirror?: boolean
   /** 'top' (with rabbets), 'bottom' (no rabbets) or 'all' (one file for both). Default 'all'. */
   layer?: PlateLayer
+  /**
+   * Pockets and access openings as inside profiles on RP-INSIDE-CUT ('routed',
+   * the default: a CNC router cuts every opening) or, where a hole saw that
+   * size exists, as its pilot on RP-DRILL and its circle on a non-cut layer
+   * named with the saw ('hole-saw': a hand shop).
+   */
+  openings?: OpeningCut
   /**
    * Largest distance between the written outline and the true curve, mm,
    * whatever the output units. Default 0.1 (the outline polygon as built);
@@ -89,11 +96,14 @@ export function normaliseCutOptions(options: CutOptions): Required<CutOptions> {
   }
   const layer = options.layer ?? 'all'
   assertPlateLayer(layer)
+  const openings = options.openings ?? 'routed'
+  assertOpeningCut(openings)
   return {
     units: options.units,
     includeReference: options.includeReference ?? true,
     mirror: options.mirror ?? false,
     layer,
+    openings,
     chordTolerance,
   }
 }
@@ -161,12 +171,12 @@ export function buildCutDrawing(plate: Plate, options: CutOptions): CutDrawing {
   }
 
   add(LAYER_OUTSIDE, 'outside', { type: 'polyline', points: closedRing(outlineWithin(plate, o.chordTolerance)), closed: true })
-  // Routed openings are inside profiles. A hole-sawn one is not machined as a profile: its
-  // saw's pilot point goes on the drill layer, and its circle on a layer that is never cut
-  // and names the saw (`RP-HOLESAW-4.25IN`), so the size travels with the file and no cut
-  // layer carries text.
+  // Routed openings are inside profiles: every pocket and opening when the file is for a CNC
+  // router. For a hand shop a hole-sawn one is not machined as a profile: its saw's pilot point
+  // goes on the drill layer, and its circle on a layer that is never cut and names the saw
+  // (`RP-HOLESAW-4.25IN`), so the size travels with the file and no cut layer carries text.
   for (const h of plate.holes) {
-    if (h.method === 'routed') add(LAYER_INSIDE, 'inside', circle(h.x, h.y, h.diameter))
+    if (h.method === 'routed' || (h.method === 'hole-saw' && o.openings === 'routed')) add(LAYER_INSIDE, 'inside', circle(h.x, h.y, h.diameter))
     else if (h.method === 'hole-saw') {
       add(LAYER_DRILL, 'drill', circle(h.x, h.y, HOLE_SAW_PILOT))
       add(holeSawLayerName(h.sawSize ?? h.diameter, o.units), 'reference', circle(h.x, h.y, h.diameter))
@@ -178,11 +188,11 @@ export function buildCutDrawing(plate: Plate, options: CutOptions): CutDrawing {
     add(rabbetLayerName(r.depth, o.units), 'rabbet', circle(r.x, r.y, r.diameter), Number(fromMm(r.depth, o.units).toFixed(3)))
   }
   // Drilled through the plywood: the centre and index holes (they register the layers and the
-  // pattern) and the pan-rim fasteners through the rabbet floor.
+  // pattern) and the pan-rim bolts through the rabbet floor. Screws into the rabbet floor need no hole.
   for (const h of plate.holes) {
     if (h.method === 'drill') add(LAYER_DRILL, 'drill', circle(h.x, h.y, h.diameter))
   }
-  for (const f of plate.fasteners ?? []) add(LAYER_DRILL, 'drill', circle(f.x, f.y, f.diameter))
+  for (const f of plate.fasteners ?? []) if (f.through) add(LAYER_DRILL, 'drill', circle(f.x, f.y, f.diameter))
   // The caster's own bolts go through the pan's steel crown, not the wood: drawn for reference only.
   if (o.includeReference) {
     for (const m of plate.casterMounts) {

@@ -4,9 +4,9 @@
 
 import Drawing from 'dxf-writer'
 import type { Plate } from '../types'
-import { buildCutDrawing, LAYER_NOTES, type CutOptions, type LayerRole } from './cut-layers'
+import { buildCutDrawing, holeSawLayerName, LAYER_NOTES, type CutOptions, type LayerRole } from './cut-layers'
 import { PLATE_LAYER_LABEL } from './layers'
-import { cutListLines, savedErrors, savedErrorsLine } from './plate-notes'
+import { cutListLines, holeListLines, savedErrors, savedErrorsLine } from './plate-notes'
 
 /** What the notes layer says about the design the file was made from. */
 export interface CutFileMeta {
@@ -73,6 +73,7 @@ function writeNotes(d: Drawing, plate: Plate, options: DxfOptions, bounds: { min
     ...(errors.length ? [savedErrorsLine(errors.length), ...errors.map((e) => `  ${e}`)] : []),
     title,
     ...cutListLines(plate, layer, units, options.mirror ?? false),
+    ...holeListLines(plate, layer, units, options.openings ?? 'routed', (saw) => holeSawLayerName(saw, units)),
     'This layer (RP-NOTES) is notes only: do not cut it.',
   ]
   const height = units === 'in' ? 0.2 : 5

@@ -42,6 +42,9 @@ export {
   PLATE_LAYER_LABEL,
   PLATE_LAYER_SUFFIX,
   MirrorRabbetError,
+  OPENING_CUTS,
+  OPENING_CUT_LABEL,
+  type OpeningCut,
   type PlateLayer,
 } from './layers'
 export {
@@ -53,6 +56,8 @@ export {
   LAYER_DRILL,
   LAYER_REFERENCE,
   LAYER_NOTES,
+  LAYER_HOLESAW_PREFIX,
+  holeSawLayerName,
   OUTLINE_CHORD_ERROR,
   type CutOptions,
   type CutDrawing,
@@ -61,7 +66,7 @@ export {
   type LayerRole,
 } from './cut-layers'
 export { renderCutDxf, type DxfOptions, type CutFileMeta } from './dxf'
-export { SAVED_WITH_ERRORS, savedErrors, savedErrorsLine, piecesFor, cutListLines, type PieceCount } from './plate-notes'
+export { SAVED_WITH_ERRORS, savedErrors, savedErrorsLine, piecesFor, cutListLines, holeListLines, type PieceCount } from './plate-notes'
 export { renderCutSvg, type SvgOptions } from './svg'
 export { exportFileName, slugify, type ExportFileMeta } from './filename'
 export { TEMPLATE_FONT_FILE, resolveFontBytes, type FontBytes } from './fonts'

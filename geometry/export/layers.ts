@@ -36,3 +36,24 @@ export class MirrorRabbetError extends RangeError {
     this.name = 'MirrorRabbetError'
   }
 }
+
+/**
+ * How the pockets and access openings go into a cut file: `routed`, inside
+ * profiles on the inside-cut layer (a CNC router cuts them, the default), or
+ * `hole-saw`, a pilot on the drill layer and the saw's circle on a layer
+ * never cut that names the saw (a hand shop). Openings past the largest hole
+ * saw are routed either way.
+ */
+export const OPENING_CUTS = ['routed', 'hole-saw'] as const
+export type OpeningCut = (typeof OPENING_CUTS)[number]
+
+export const OPENING_CUT_LABEL: Record<OpeningCut, string> = {
+  routed: 'routed as inside profiles (CNC)',
+  'hole-saw': 'hole-saw marks with pilots (hand shop)',
+}
+
+export function assertOpeningCut(openings: unknown): asserts openings is OpeningCut {
+  if (!(OPENING_CUTS as readonly unknown[]).includes(openings)) {
+    throw new RangeError(`Unknown way to cut the openings "${String(openings)}": use one of ${OPENING_CUTS.join(', ')}.`)
+  }
+}

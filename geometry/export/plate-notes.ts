@@ -4,8 +4,9 @@
 // template, the cut file and the build sheet say the same thing.
 
 import type { Plate } from '../types'
+import type { PlateParams } from '../params'
 import { problemRows } from '../checks/messages'
-import type { PlateLayer } from './layers'
+import type { OpeningCut, PlateLayer } from './layers'
 import { formatShopLength, type ExportUnits } from './units'
 
 /** Heading of the warning carried by every file made from a revision saved with errors. */
@@ -70,3 +71,71 @@ export function cutListLines(plate: Pick<Plate, 'params'>, layer: PlateLayer, un
   lines.push(face)
   return lines
 }
+
+const KIND_WORDS: Record<string, [string, string]> = {
+  pocket: ['pocket', 'pockets'],
+  access: ['access opening', 'access openings'],
+  centre: ['centre hole', 'centre holes'],
+  index: ['index hole', 'index holes'],
+}
+
+/**
+ * Every hole a file of one plate carries, one line per kind and size, and how
+ * each is cut, so the operator can check the file against the plate: the
+ * saw size of every opening a hole saw can cut (whether this file routes it
+ * or marks it for the saw), the drilled holes, the pan fasteners and the
+ * rabbets. Layer names as in cut-layers.ts.
+ */
+export function holeListLines(
+  plate: Pick<Plate, 'params' | 'holes' | 'fasteners' | 'rabbets'>,
+  layer: PlateLayer,
+  units: ExportUnits,
+  openings: OpeningCut,
+  /** Layer name a saw's circle goes on (cut-layers.ts holeSawLayerName). */
+  sawLayer: (sawMm: number) => string,
+): string[] {
+  const L = (v: number) => formatShopLength(v, units)
+  const groups = new Map<string, { kind: string; diameter: number; method: string; saw?: number; count: number }>()
+  for (const h of plate.holes) {
+    const key = `${h.kind} ${h.diameter.toFixed(3)} ${h.method}`
+    const g = groups.get(key)
+    if (g) g.count++
+    else groups.set(key, { kind: h.kind, diameter: h.diameter, method: h.method, saw: h.sawSize, count: 1 })
+  }
+  const lines: string[] = ['Holes in this file (every layer of the plate has them unless said):']
+  const saws = new Map<string, string[]>()
+  for (const g of groups.values()) {
+    const [one, many] = KIND_WORDS[g.kind] ?? [g.kind, `${g.kind}s`]
+    const what = `${g.count} ${g.count === 1 ? one : many} ${L(g.diameter)}`
+    if (g.method === 'drill') lines.push(`  ${what}: drilled (RP-DRILL).`)
+    else if (g.method === 'routed') lines.push(`  ${what}: routed as inside profiles (RP-INSIDE-CUT); larger than a common hole saw.`)
+    else {
+      const saw = g.saw ?? g.diameter
+      const list = saws.get(L(saw)) ?? []
+      list.push(`${g.count} ${g.count === 1 ? one : many}`)
+      saws.set(L(saw), list)
+      lines.push(openings === 'routed'
+        ? `  ${what}: routed as inside profiles (RP-INSIDE-CUT); by hand, a ${L(saw)} hole saw.`
+        : `  ${what}: ${L(saw)} hole saw, circle on ${sawLayer(saw)} (not cut), ${L(HOLE_SAW_PILOT_MM)} pilot on RP-DRILL.`)
+    }
+  }
+  const through = (plate.fasteners ?? []).filter((x) => x.through)
+  const fp = plate.params.fasteners as PlateParams['fasteners'] | undefined
+  if (fp?.kind === 'screw') {
+    lines.push(`  Pan fasteners: ${fp.count} screws per pan into the rabbet floor, ${L(fp.diameter)}: no holes cut (drive them through the rim at fitting).`)
+  } else if (through.length > 0) {
+    const nut = !fp ? 'nuts' : fp.kind === 'bolt-tnut' ? 'T-nuts in the underside' : `nuts in ${L(fp.counterboreDiameter)} counterbores ${L(fp.counterboreDepth)} deep from the underside (drill after gluing)`
+    lines.push(`  ${through.length} pan-fastener holes ${L(through[0]!.diameter)}: drilled right through (RP-DRILL), bolts with ${nut}.`)
+  }
+  if (layer !== 'bottom' && plate.rabbets.length > 0) {
+    const r = plate.rabbets[0]!
+    lines.push(`  ${plate.rabbets.length} rabbets ${L(r.diameter)} across, ${L(r.depth)} deep, top layer only (RP-RABBET-...).`)
+  }
+  if (saws.size > 0) {
+    lines.push(`Hole saws: ${[...saws].map(([size, what]) => `${size} (${what.join(', ')})`).join('; ')}.`)
+  }
+  return lines
+}
+
+/** A hole saw's pilot drill, mm: 1/4 in on common arbors (from memory). Also in cut-layers.ts. */
+const HOLE_SAW_PILOT_MM = 6.35

@@ -2,8 +2,8 @@
 // the DXF, each layer a group, y turned so the drawing reads as in the editor.
 
 import type { Plate } from '../types'
-import { buildCutDrawing, type CutOptions, type LayerRole } from './cut-layers'
-import { cutListLines, savedErrors, savedErrorsLine } from './plate-notes'
+import { buildCutDrawing, holeSawLayerName, type CutOptions, type LayerRole } from './cut-layers'
+import { cutListLines, holeListLines, savedErrors, savedErrorsLine } from './plate-notes'
 
 export type SvgOptions = CutOptions
 
@@ -41,7 +41,7 @@ export function renderCutSvg(plate: Plate, options: SvgOptions): string {
   ]
   // The notes the DXF carries on RP-NOTES, as the file's description: never drawn, so never cut.
   const errors = savedErrors(plate, u)
-  const notes = [...(errors.length ? [savedErrorsLine(errors.length), ...errors] : []), ...cutListLines(plate, cut.layer, u, options.mirror ?? false)]
+  const notes = [...(errors.length ? [savedErrorsLine(errors.length), ...errors] : []), ...cutListLines(plate, cut.layer, u, options.mirror ?? false), ...holeListLines(plate, cut.layer, u, options.openings ?? 'routed', (saw) => holeSawLayerName(saw, u))]
   lines.push(`<desc>${escapeXml(notes.join('\n'))}</desc>`)
   for (const layer of cut.layers) {
     const dash = layer.cut ? '' : ` stroke-dasharray="${n(stroke * 12)} ${n(stroke * 6)}"`

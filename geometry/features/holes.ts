@@ -119,6 +119,7 @@ export function roundFeatures(params: PlateParams): RoundFeatures {
   const pocketCut = openingMethod(params.pocketDiameter)
   const boltRadius = fastenerCircleDiameter(params) / 2
   const nf = params.fasteners.count
+  const through = params.fasteners.kind !== 'screw'
   for (let k = 0; k < n; k++) {
     const angle = casterAngle(params, k)
     const a = angle * DEG
@@ -130,7 +131,7 @@ export function roundFeatures(params: PlateParams): RoundFeatures {
     // Half a step off the radial line, so no fastener sits where the tube notch and the plate's edge come closest.
     for (let j = 0; j < nf; j++) {
       const b = (angle + ((j + 0.5) * 360) / nf) * DEG
-      fasteners.push({ id: `fastener-${k}-${j}`, pocketId: id, x: x + boltRadius * Math.cos(b), y: y + boltRadius * Math.sin(b), diameter: params.fasteners.diameter })
+      fasteners.push({ id: `fastener-${k}-${j}`, pocketId: id, x: x + boltRadius * Math.cos(b), y: y + boltRadius * Math.sin(b), diameter: params.fasteners.diameter, through })
     }
   }
 

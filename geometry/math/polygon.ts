@@ -298,6 +298,37 @@ function extents(hull: readonly Point[], a: number): [number, number] {
   return [maxU - minU, maxV - minV]
 }
 
+/** Room a fit may overshoot by, mm: floating-point noise only, far under anything a cutter or a tape measure sees. */
+export const FIT_EPSILON = 1e-6
+
+/**
+ * A turn (degrees counter-clockwise) at which the shape's bounding box fits
+ * `width` along x and `height` along y, or null when no orientation tried
+ * fits: the narrowest direction, every hull edge's direction and half-degree
+ * steps, each both ways round. The sheet check (geometry/checks/cutting.ts)
+ * and the nester (geometry/nest/nest.ts) both ask this, so they agree on what
+ * fits a sheet.
+ */
+export function fitTurn(points: readonly Point[], width: number, height: number): number | null {
+  const hull = simplePolygonHull(points)
+  if (hull.length < 3) return null
+  const angles: number[] = [0, minimumWidth(hull).angle]
+  for (let i = 0; i < hull.length; i++) {
+    const p = hull[i]!
+    const q = hull[(i + 1) % hull.length]!
+    angles.push(Math.atan2(q[1] - p[1], q[0] - p[0]))
+  }
+  for (let i = 1; i < 360; i++) angles.push((i * Math.PI) / 360)
+  for (const a of angles) {
+    // extents(a) measures along a (u) and square to it (v): turning by -a lays u along x.
+    const [u, v] = extents(hull, a)
+    const deg = (-a * 180) / Math.PI
+    if (u <= width + FIT_EPSILON && v <= height + FIT_EPSILON) return deg
+    if (v <= width + FIT_EPSILON && u <= height + FIT_EPSILON) return deg + 90
+  }
+  return null
+}
+
 /**
  * Whether a shape fits a sheet of the given size in some orientation. Two
  * exact answers settle nearly every plate at once: narrower than the sheet

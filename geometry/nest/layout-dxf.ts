@@ -1,12 +1,18 @@
-// One DXF per nested sheet for the CNC shop: every part with its holes, on
-// the same layers as a plate's own cut file (geometry/export/cut-layers.ts),
-// turned and moved to where the plan put it. The sheet's edge and margin go on
-// a layer that is never cut, so nothing but geometry sits on the cut layers.
+// One DXF per nested sheet for the CNC shop: every part with every hole
+// (pockets, access openings, pilots, rabbets, drilled holes), on the same
+// layers as a plate's own cut file (geometry/export/cut-layers.ts), turned and
+// moved to where the plan put it, and the notes (what each part is, its holes,
+// the saw sizes, any errors it was saved with) on RP-NOTES below the sheet.
+// The sheet's edge and margin go on a layer that is never cut, so nothing but
+// geometry sits on the cut layers.
 
 import Drawing from 'dxf-writer'
 import type { Point } from '../types'
-import { buildCutDrawing, type CutEntity, type LayerRole } from '../export/cut-layers'
-import type { ExportUnits } from '../export/units'
+import { buildCutDrawing, holeSawLayerName, LAYER_NOTES, type CutEntity, type LayerRole } from '../export/cut-layers'
+import { formatShopLength, type ExportUnits } from '../export/units'
+import type { OpeningCut } from '../export/layers'
+import { PLATE_LAYER_LABEL } from '../export/layers'
+import { holeListLines, savedErrors, savedErrorsLine } from '../export/plate-notes'
 import type { PlanEntry, SheetPlan } from './plan'
 
 /** Never cut: the sheet's outline and the margin line. */
@@ -17,6 +23,8 @@ const COLOUR: Record<LayerRole, number> = { outside: 3, inside: 5, rabbet: 30, d
 
 export interface LayoutDxfOptions {
   units: ExportUnits
+  /** Pockets and openings routed as inside profiles (default) or marked for a hole saw with pilots, as in a plate's own cut file. */
+  openings?: OpeningCut
 }
 
 function place(p: Point, turn: number, at: Point, k: number): Point {
@@ -39,9 +47,9 @@ export function renderLayoutDxf(plan: SheetPlan, entries: PlanEntry[], index: nu
   for (const part of layout.parts) {
     const entry = entries[part.entry]!
     // Glued first, a panel is cut with the top layer's rabbets; cut alone, each layer has its own file content.
-    const cut = buildCutDrawing(entry.plate, { units: options.units, layer: part.layer, includeReference: false })
+    const cut = buildCutDrawing(entry.plate, { units: options.units, layer: part.layer, includeReference: false, openings: options.openings ?? 'routed' })
+    // Without reference marks, every layer left is the plate's: the cut ones and the hole-saw marks.
     for (const layer of cut.layers) {
-      if (!layer.cut) continue
       roles.set(layer.name, { role: layer.role, cut: layer.cut })
       const list = layers.get(layer.name) ?? []
       layers.set(layer.name, list)
@@ -57,8 +65,9 @@ export function renderLayoutDxf(plan: SheetPlan, entries: PlanEntry[], index: nu
       }
     }
   }
-  for (const [name, { role }] of roles) d.addLayer(name, COLOUR[role], 'CONTINUOUS')
+  for (const [name, { role, cut }] of roles) d.addLayer(name, COLOUR[role], cut ? 'CONTINUOUS' : 'DASHED')
   d.addLayer(LAYER_SHEET, 8, 'DASHED')
+  d.addLayer(LAYER_NOTES, 7, 'CONTINUOUS')
   for (const [name, list] of layers) {
     d.setActiveLayer(name)
     for (const e of list) {
@@ -77,5 +86,46 @@ export function renderLayoutDxf(plan: SheetPlan, entries: PlanEntry[], index: nu
   ]
   d.drawPolyline(rect(0, 0, width, height), true)
   if (margin > 0) d.drawPolyline(rect(margin, margin, width - margin, height - margin), true)
+  writeNotes(d, plan, entries, index, options)
   return d.toDxfString()
+}
+
+const PART_WORDS = { all: 'panel (every layer glued, top layer up)', top: 'top layer', bottom: 'bottom layer' } as const
+
+/** The sheet's notes, below the sheet on RP-NOTES (text only, never cut). */
+function writeNotes(d: Drawing, plan: SheetPlan, entries: PlanEntry[], index: number, options: LayoutDxfOptions): void {
+  const units = options.units
+  const openings = options.openings ?? 'routed'
+  const layout = plan.layouts[index]!
+  const L = (mm: number) => formatShopLength(mm, units)
+  const lines: string[] = [
+    `Sheet ${index + 1} of ${plan.layouts.length} - ${L(plan.sheet.width)} x ${L(plan.sheet.height)}, ${L(plan.sheet.margin)} margin, ${L(plan.sheet.kerf)} kerf - units ${units === 'in' ? 'inches' : 'millimetres'}${layout.sheets > 1 ? ` - a panel of ${layout.sheets} sheets glued` : ''}`,
+  ]
+  layout.parts.forEach((part, k) => {
+    const e = entries[part.entry]!
+    lines.push(`Part ${k + 1}: ${e.name}${e.size ? ` ${e.size}` : ''}, ${PART_WORDS[part.layer]}${part.layerNumber > 1 ? ` ${part.layerNumber}` : ''}, turned ${Number(part.turn.toFixed(2))} deg.`)
+  })
+  // Each design and layer once: its saved errors, then its holes.
+  const seen = new Set<string>()
+  for (const part of layout.parts) {
+    const plateLayer = part.layer === 'all' ? 'all' : part.layer
+    const key = `${part.entry} ${plateLayer}`
+    if (seen.has(key)) continue
+    seen.add(key)
+    const e = entries[part.entry]!
+    const errors = savedErrors(e.plate, units)
+    lines.push(`${e.name}${e.size ? ` ${e.size}` : ''}, ${PLATE_LAYER_LABEL[plateLayer]}:`)
+    if (errors.length) lines.push(`  ${savedErrorsLine(errors.length)}`, ...errors.map((t) => `    ${t}`))
+    lines.push(...holeListLines(e.plate, plateLayer, units, openings, (saw) => holeSawLayerName(saw, units)).map((t) => `  ${t}`))
+  }
+  lines.push('This layer (RP-NOTES) is notes only: do not cut it.')
+  const height = units === 'in' ? 0.4 : 10
+  const gap = height * 1.7
+  d.setActiveLayer(LAYER_NOTES)
+  let y = -2 * gap
+  for (const line of lines) {
+    // DXF TEXT is one line of plain characters: keep it to what every reader shows.
+    d.drawText(0, y, height, 0, line.replace(/[^\x20-\x7e]/g, (c) => (c === '\u00b0' ? ' deg' : c === '\u00b7' ? '-' : '?')))
+    y -= gap
+  }
 }

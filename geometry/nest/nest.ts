@@ -7,7 +7,7 @@
 // follow their real outlines, so a lobe can sit between another plate's roots.
 
 import type { Point } from '../types'
-import { signedArea, bounds, distanceToRing, type Bounds } from '../math/polygon'
+import { signedArea, bounds, distanceToRing, fitTurn, FIT_EPSILON, type Bounds } from '../math/polygon'
 import { convexPieces, differenceRings, minkowskiSumRings, offsetRing, thinRing } from '../math/offset'
 
 export interface NestPartInput {
@@ -105,8 +105,18 @@ export class NestTimeoutError extends Error {
 
 /** How far thinning may move the spacing shape's edges, mm, before it is grown back: fewer points, faster sums. */
 const THIN = 2.5
-/** Extra room kept between parts and inside the margin, mm: covers the engine's rounding to 0.01 mm. */
-const SLACK = 0.05
+/**
+ * Largest gap between a grown outline's corner arcs and their chords, mm: the
+ * engine's own micrometre. Parts are kept apart by the user's kerf and inside
+ * the user's margin with no slack beyond this and the engine's rounding to
+ * the micrometre (geometry/math/offset.ts).
+ */
+const SPACING_ARC_TOLERANCE = 1e-3
+/**
+ * The polygon engine's rounding, mm (a micrometre): parts are spaced a kerf
+ * less this, so a spot exactly a kerf from a placed part survives rounding.
+ */
+const FIT_ROUNDING = 1e-3
 
 const DEFAULT_TURNS = [0, 90, 180, 270]
 const ROUND_TURNS = [0, 45, 90, 135, 180, 225, 270, 315]
@@ -170,15 +180,21 @@ const PIECES_CACHE = new Map<string, Point[][]>()
 
 /**
  * The outline grown by `clearance` (half the kerf each side keeps two parts a
- * whole kerf apart), with few enough points for fast Minkowski sums: thinned,
- * then grown again by as much as the thinning cut into it, so it still holds
- * the whole grown outline.
+ * whole kerf apart). An outline of few points (drawn polygons, rectangles) is
+ * grown exactly, its corner arcs within a micrometre: two such parts stand a
+ * kerf apart and no more. A curved outline of many points is thinned for fast
+ * Minkowski sums, then grown again by as much as the thinning cut into it, so
+ * it still holds the whole grown outline: between two curved parts the gap
+ * may exceed the kerf by up to about twice THIN where the thinning left
+ * chords (a known cost of speed, not a rule: the margin and the fit on the
+ * sheet use the true outline).
  */
 function spacingShape(ccw: Point[], clearance: number): Point[] {
-  const grown = offsetRing(ccw, clearance)
+  if (clearance <= 0) return [...ccw]
+  const few = ccw.length <= 64
+  const grown = offsetRing(ccw, clearance, few ? { arcTolerance: SPACING_ARC_TOLERANCE } : {})
   const biggest = grown.reduce<Point[]>((best, r) => (Math.abs(signedArea(r)) > Math.abs(signedArea(best)) ? r : best), grown[0] ?? ccw)
-  // Few points already (drawn polygons, rectangles): exact is cheap enough.
-  if (biggest.length <= 64) return biggest
+  if (few) return biggest
   const thin = thinRing(biggest, THIN)
   let cut = 0
   for (const [x, y] of biggest) {
@@ -207,7 +223,13 @@ function prepare(index: number, outline: Point[], sheet: NestSheetInput, options
   const h = b0.maxY - b0.minY
   const roundish = Math.min(w, h) / Math.max(w, h) > 0.85
   const turns = normaliseTurns(options.turns ?? (roundish ? ROUND_TURNS : DEFAULT_TURNS), options.grain ?? false)
-  const spacing0 = spacingShape(ccw, sheet.kerf / 2 + SLACK)
+  // The sheet check's rule (geometry/checks/cutting.ts): a part that fits the sheet inside its margin at
+  // some turn is placed, at that turn when none of the usual ones fits (unless the grain forbids it).
+  if (!turns.some((t) => innerFit(bounds(rotate(ccw, t)), sheet))) {
+    const t = fitTurn(ccw, sheet.width - 2 * sheet.margin, sheet.height - 2 * sheet.margin)
+    if (t !== null) turns.push(...normaliseTurns([t], options.grain ?? false).filter((d) => !turns.includes(d)))
+  }
+  const spacing0 = spacingShape(ccw, Math.max(0, sheet.kerf - FIT_ROUNDING) / 2)
   const shapes = new Map<number, { bounds: Bounds; spacing: Point[] }>()
   for (const t of turns) shapes.set(t, { bounds: bounds(rotate(ccw, t)), spacing: rotate(spacing0, t) })
   const key = digest(spacing0)
@@ -233,18 +255,21 @@ interface SheetState {
 
 /** Where a part at `turn` may put its origin so that it stays inside the margin (empty when it cannot). */
 function innerFit(b: Bounds, sheet: NestSheetInput): Point[] | null {
-  const x0 = sheet.margin + SLACK - b.minX
-  const x1 = sheet.width - sheet.margin - SLACK - b.maxX
-  const y0 = sheet.margin + SLACK - b.minY
-  const y1 = sheet.height - sheet.margin - SLACK - b.maxY
-  if (x1 < x0 || y1 < y0) return null
-  // A rectangle of zero width still allows a position: widen it a hair so the engine keeps it.
-  const e = 1e-3
+  let x0 = sheet.margin - b.minX
+  let x1 = sheet.width - sheet.margin - b.maxX
+  let y0 = sheet.margin - b.minY
+  let y1 = sheet.height - sheet.margin - b.maxY
+  if (x1 < x0 - FIT_EPSILON || y1 < y0 - FIT_EPSILON) return null
+  // A part that fits exactly has one position: centre it (floating-point noise), and give the
+  // rectangle half a micrometre each way so the engine keeps an area.
+  const e = FIT_ROUNDING / 2
+  if (x1 - x0 < 2 * e) [x0, x1] = [(x0 + x1) / 2 - e, (x0 + x1) / 2 + e]
+  if (y1 - y0 < 2 * e) [y0, y1] = [(y0 + y1) / 2 - e, (y0 + y1) / 2 + e]
   return [
     [x0, y0],
-    [Math.max(x1, x0 + e), y0],
-    [Math.max(x1, x0 + e), Math.max(y1, y0 + e)],
-    [x0, Math.max(y1, y0 + e)],
+    [x1, y0],
+    [x1, y1],
+    [x0, y1],
   ]
 }
 
@@ -287,7 +312,11 @@ class Nester {
       const free = differenceRings([fit], blocked)
       for (const ring of free) {
         if (signedArea(ring) <= 0) continue
-        for (const [x, y] of ring) {
+        for (const [rx, ry] of ring) {
+          // The engine rounds to the micrometre: clamp back inside the margin, so a part at the
+          // margin is exactly there and never half a micrometre past it.
+          const x = Math.min(Math.max(rx, fit[0]![0]), fit[2]![0])
+          const y = Math.min(Math.max(ry, fit[0]![1]), fit[2]![1])
           // Lowest top edge first, then furthest left: rows build up from the bottom and leave one
           // clear offcut at the far end.
           const score: [number, number] = [Math.round((y + shape.bounds.maxY) * 10) / 10, x + shape.bounds.maxX]

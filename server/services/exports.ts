@@ -3,7 +3,7 @@ import { buildPlate, plateParamsSchema, type Plate } from '../../geometry'
 import { skirtMarks } from './skirt'
 import {
   renderTemplatePdf, renderTubeWrapPdf, renderCutDxf, renderCutSvg, exportFileName, PAPER_NAMES,
-  PLATE_LAYERS, PLATE_LAYER_SUFFIX, MirrorRabbetError,
+  PLATE_LAYERS, PLATE_LAYER_SUFFIX, MirrorRabbetError, OPENING_CUTS,
   type PaperName, type FontBytes, type PlateLayer,
 } from '../../geometry/export'
 import { invalid } from '../utils/validation'
@@ -43,11 +43,15 @@ export const tubeWrapQuerySchema = z.object({
   height: mm(600).pipe(z.number().min(25, 'The strip must be at least 25 mm tall')).optional(),
 })
 
+/** Pockets and openings routed as inside profiles (CNC, the default) or marked for a hole saw with pilots (hand shop). */
+export const openingsField = z.enum(OPENING_CUTS, { error: `Openings must be one of: ${OPENING_CUTS.join(', ')}` }).default('routed')
+
 export const cutQuerySchema = z.object({
   units: units.default('in'),
   reference: flag.default(true),
   mirror: flag.default(false),
   layer,
+  openings: openingsField,
 })
 
 export interface RevisionForExport {
@@ -118,9 +122,9 @@ function refuseMirroredRabbets<T>(write: () => T): T {
 /** `revision` names the design on the file's notes layer; without it the notes say only what the plate shows. */
 export function cutDxf(plate: Plate, q: z.output<typeof cutQuerySchema>, revision?: RevisionForExport): string {
   const meta = revision ? { designName: revision.designName, sizeLabel: revision.sizeLabel ?? undefined, revision: revision.number } : undefined
-  return refuseMirroredRabbets(() => renderCutDxf(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer, meta }))
+  return refuseMirroredRabbets(() => renderCutDxf(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer, openings: q.openings, meta }))
 }
 
 export function cutSvg(plate: Plate, q: z.output<typeof cutQuerySchema>): string {
-  return refuseMirroredRabbets(() => renderCutSvg(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer }))
+  return refuseMirroredRabbets(() => renderCutSvg(plate, { units: q.units, includeReference: q.reference, mirror: q.mirror, layer: q.layer, openings: q.openings }))
 }

@@ -154,8 +154,8 @@ export async function sheetPlanPdf(db: Database, shopId: string, input: SheetPla
   return { pdf, fileName: `${fileStem(input)}.pdf` }
 }
 
-export async function sheetPlanDxf(db: Database, shopId: string, input: SheetPlanRequest & { units: 'in' | 'mm'; index: number }) {
+export async function sheetPlanDxf(db: Database, shopId: string, input: SheetPlanRequest & { units: 'in' | 'mm'; index: number; openings?: 'routed' | 'hole-saw' }) {
   const { plan, entries } = await loadPlan(db, shopId, input)
   if (input.index >= plan.layouts.length) invalid({ index: `The plan has ${plan.layouts.length} sheet${plan.layouts.length === 1 ? '' : 's'}` })
-  return { dxf: renderLayoutDxf(plan, entries, input.index, { units: input.units }), fileName: `${fileStem(input)}-${input.index + 1}.dxf` }
+  return { dxf: renderLayoutDxf(plan, entries, input.index, { units: input.units, openings: input.openings }), fileName: `${fileStem(input)}-${input.index + 1}.dxf` }
 }

@@ -18,6 +18,8 @@ export const exportPrefsSchema = z.object({
   mirror: z.boolean().default(false),
   /** Which plate layer templates and cut files are for: top (with rabbets), bottom, or all in one. */
   layer: z.enum(['top', 'bottom', 'all']).default('all'),
+  /** Pockets and openings in cut files: routed as inside profiles (CNC) or marked for a hole saw with pilots. */
+  openings: z.enum(['routed', 'hole-saw']).default('routed'),
   /** Router guide bushing and bit diameters in mm, or null for a flush-trim pattern. */
   bushing: z.object({ bushingDiameter: z.number().positive().max(60), bitDiameter: z.number().positive().max(50) }).nullable().default(null),
 })

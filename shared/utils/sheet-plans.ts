@@ -43,6 +43,8 @@ export const layoutFileSchema = sheetPlanRequestSchema.extend({
 
 export const layoutDxfSchema = layoutFileSchema.extend({
   index: z.number({ error: 'Choose a sheet' }).int().min(0, 'Choose a sheet').max(999, 'Choose a sheet'),
+  /** As on a plate's cut file: pockets and openings routed (CNC, default) or marked for a hole saw with pilots. */
+  openings: z.enum(['routed', 'hole-saw'], { error: 'Openings must be one of: routed, hole-saw' }).default('routed'),
 })
 
 /** Sheet sizes a shop buys: 4 x 8 ft (US Product Standard PS 1-19) and the metric 1220 x 2440 mm panel. */

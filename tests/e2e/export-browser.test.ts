@@ -14,7 +14,7 @@ import { signInThroughForm } from './support/sign-in'
 const shots = 'test-results/e2e'
 let browser: Browser
 
-const defaults = { paper: 'letter', orientation: 'auto', units: 'in', overlap: 12.7, margin: 6.35, includeReference: true, mirror: false, bushing: null }
+const defaults = { paper: 'letter', orientation: 'auto', units: 'in', overlap: 12.7, margin: 6.35, includeReference: true, mirror: false, bushing: null, openings: 'routed' }
 let cookie = ''
 let designId = ''
 
@@ -167,6 +167,31 @@ describe('the export panel in Chromium', () => {
     await page.keyboard.press('Tab')
     const focused = await page.evaluate(() => document.activeElement?.textContent?.trim())
     expect(focused).toBe('SVG')
+    await context.close()
+  })
+
+  it.each([1440, 390])('at %i px the cut files offer Routed (default) or Hole saw, and the DXF follows the choice', async (width) => {
+    const context = await browser.newContext({ viewport: { width, height: 900 }, extraHTTPHeaders: { 'x-forwarded-for': freshAddress() }, acceptDownloads: true })
+    const page = await context.newPage()
+    await openDesign(page, [/request failed: GET .*\/cut\.dxf\?.* net::ERR_ABORTED$/])
+    const routed = page.getByRole('radio', { name: 'Routed' })
+    await expect(routed.isChecked()).resolves.toBe(true)
+    await expect(page.getByTestId('export-openings-hint').textContent()).resolves.toMatch(/inside profile on the cut layer RP-INSIDE-CUT/)
+    await page.getByText('Hole saw', { exact: true }).click()
+    await expect(page.getByTestId('export-openings-hint').textContent()).resolves.toMatch(/pilot on RP-DRILL/)
+    await page.getByTestId('export-openings-hint').scrollIntoViewIfNeeded()
+    await page.screenshot({ path: `${shots}/export-openings-${width}.png` })
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('button', { name: 'DXF' }).click(),
+    ])
+    const dxf = new DxfParser().parseSync(readFileSync(await download.path(), 'utf8'))!
+    // This design's 4-1/4 in pockets (three casters) on a saw layer, none routed.
+    const sawn = dxf.entities.filter(e => e.type === 'CIRCLE' && e.layer === 'RP-HOLESAW-4.25IN')
+    expect(sawn).toHaveLength(3)
+    expect(dxf.entities.filter(e => e.layer === 'RP-INSIDE-CUT')).toHaveLength(0)
+    // Remembered for this person.
+    await expect.poll(async () => (await api('/api/me', { cookie })).body.preferences.export.openings, { timeout: 5000 }).toBe('hole-saw')
     await context.close()
   })
 

@@ -179,6 +179,8 @@ describe('bad options are a 422 with field messages', () => {
     ['cut.dxf', 'mirror=true&layer=top', 'mirror', /rabbets would land on the face the machine cannot reach/],
     ['cut.dxf', 'mirror=true', 'mirror', /mirror only the bottom layer/],
     ['cut.svg', 'mirror=1&layer=all', 'mirror', /rabbets/],
+    ['cut.dxf', 'openings=drill', 'openings', /Openings must be one of: routed, hole-saw/],
+    ['cut.svg', 'openings=', 'openings', /Openings must be one of/],
   ])('%s?%s names the %s field', async (file, query, field, message) => {
     const res = await api(`/api/revisions/${revisionId}/${file}?${query}`, { cookie: cookies.viewer })
     expect(res.status).toBe(422)
@@ -466,6 +468,45 @@ describe('the cut files read back', () => {
     // Stored params may leave it to the default, a 1/4 in hole (issue 8, from the shop's own practice).
     const centre = (params.centreHoleDiameter ?? 6.35) / 2
     expect(through(bottom)).toContain(key({ center: { x: 0, y: 0 }, radius: centre } as ICircleEntity))
+  })
+
+  it('openings=routed (the default) routes every pocket and opening; openings=hole-saw marks the same circles for the saw, with a pilot at each centre', async () => {
+    const routedRes = await download(`/api/revisions/${revisionId}/cut.dxf?units=in`, cookies.builder)
+    const sawRes = await download(`/api/revisions/${revisionId}/cut.dxf?units=in&openings=hole-saw`, cookies.builder)
+    expect(sawRes.status).toBe(200)
+    const routed = parseDxf(routedRes.text)
+    const sawn = parseDxf(sawRes.text)
+    const circles = (d: IDxf, test: (layer: string) => boolean) => d.entities.filter(e => e.type === 'CIRCLE' && test(e.layer)) as ICircleEntity[]
+    const inside = circles(routed, l => l === 'RP-INSIDE-CUT')
+    const marks = circles(sawn, l => l.startsWith('RP-HOLESAW-'))
+    const pilots = circles(sawn, l => l === 'RP-DRILL')
+    // The stored design has pockets and openings a hole saw cuts: each saw mark is one routed circle of the other file.
+    expect(marks.length).toBeGreaterThan(0)
+    expect(circles(routed, l => l.startsWith('RP-HOLESAW-'))).toHaveLength(0)
+    for (const m of marks) {
+      expect(inside.some(c => Math.hypot(c.center.x - m.center.x, c.center.y - m.center.y) < 1e-6 && Math.abs(c.radius - m.radius) < 1e-6)).toBe(true)
+      // A 1/4 in pilot at its centre (common arbor pilot, from memory).
+      expect(pilots.some(p => Math.hypot(p.center.x - m.center.x, p.center.y - m.center.y) < 1e-6 && Math.abs(p.radius - 0.125) < 1e-9)).toBe(true)
+      // The layer names the saw: RP-HOLESAW-<diameter in inches>IN.
+      expect(m.layer).toBe(`RP-HOLESAW-${Number((2 * m.radius).toFixed(3))}IN`)
+    }
+    // The notes name every saw size either way.
+    const notes = (d: IDxf) => d.entities.filter(e => e.layer === 'RP-NOTES' && e.type === 'TEXT').map(e => (e as unknown as { text: string }).text).join('\n')
+    for (const d of [routed, sawn]) {
+      const saws = /Hole saws: (.*)\./.exec(notes(d))
+      expect(saws).not.toBeNull()
+      // The layer's decimal inches as a shop fraction, by hand: 4.25 -> 4-1/4 in, 2 -> 2 in.
+      for (const m of marks) {
+        const d = Number(m.layer.slice('RP-HOLESAW-'.length, -2))
+        const whole = Math.floor(d)
+        let num = Math.round((d - whole) * 32)
+        let den = 32
+        while (num > 0 && num % 2 === 0) { num /= 2; den /= 2 }
+        expect(saws![1]).toContain(num ? `${whole}-${num}/${den} in` : `${whole} in`)
+      }
+    }
+    // Different files, different cache entries.
+    expect(sawRes.text).not.toBe(routedRes.text)
   })
 
   it.each([['in', IN], ['mm', 1]] as const)('the SVG is at real size: width and height in %s, at least the DXF outline\'s extent', async (units, mmPerUnit) => {

@@ -149,6 +149,40 @@ describe('sheet plan route', () => {
     // Glued first, the panel is cut with the top layer's rabbets; the pockets and holes are there too.
     expect(Object.keys(parsed.tables.layer.layers).some((n) => n.startsWith('RP-RABBET-'))).toBe(true)
     expect(parsed.entities.some((e: any) => e.type === 'CIRCLE' && e.layer === 'RP-DRILL')).toBe(true)
+    // Every pocket and access opening of every placed plate, routed (the default): each part's outline
+    // holds as many inside-cut circles as its own design's cut file has (read back from the revision's file).
+    const inside = parsed.entities.filter((e: any) => e.type === 'CIRCLE' && e.layer === 'RP-INSIDE-CUT') as any[]
+    const inRing = (ring: Pt[], x: number, y: number) => {
+      let isIn = false
+      for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
+        const [xi, yi] = ring[i]!
+        const [xj, yj] = ring[j]!
+        if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) isIn = !isIn
+      }
+      return isIn
+    }
+    let expectedInside = 0
+    for (const part of plan.layouts[0].parts) {
+      const entry = plan.entries[part.entry]
+      const design = (await api(`/api/designs/${entry.designId}`, { cookie: shop.cookie })).body
+      const own = new DxfParser().parseSync(await (await fetch(`${inject('baseUrl')}/api/revisions/${design.latest.id}/cut.dxf?units=in`, { headers: { cookie: shop.cookie } })).text())!
+      const count = own.entities.filter((e: any) => e.type === 'CIRCLE' && e.layer === 'RP-INSIDE-CUT').length
+      expect(count).toBeGreaterThan(0)
+      const ring = (part.outline as Pt[]).map(([x, y]) => [x / IN, y / IN] as Pt)
+      expect(inside.filter((c) => inRing(ring, c.center.x, c.center.y))).toHaveLength(count)
+      expectedInside += count
+    }
+    expect(inside).toHaveLength(expectedInside)
+    // The notes layer says what each part is and names the saw sizes.
+    const notes = parsed.entities.filter((e: any) => e.layer === 'RP-NOTES' && e.type === 'TEXT').map((e: any) => e.text).join('\n')
+    expect(notes).toContain('Part 1: ')
+    expect(notes).toMatch(/Hole saws: /)
+    // For a hand shop: the same holes as hole-saw marks, a layer per saw, never cut.
+    const sawn = await postFile('/api/sheet-plans/sheet.dxf', shop.cookie, { ...body([2, 2, 2]), units: 'in', index: 0, openings: 'hole-saw' })
+    const sawParsed = new DxfParser().parseSync(new TextDecoder().decode(sawn.bytes))!
+    expect(sawParsed.entities.filter((e: any) => e.type === 'CIRCLE' && e.layer.startsWith('RP-HOLESAW-')).length).toBeGreaterThan(0)
+    const bad = await postFile('/api/sheet-plans/sheet.dxf', shop.cookie, { ...body([2, 2, 2]), units: 'in', index: 0, openings: 'laser' })
+    expect(bad.status).toBe(422)
     const beyond = await postFile('/api/sheet-plans/sheet.dxf', shop.cookie, { ...body([2, 2, 2]), units: 'in', index: plan.layouts.length })
     expect(beyond.status).toBe(422)
   })

@@ -92,18 +92,18 @@ describe.each(plates)('$id', ({ input, plate }) => {
     expect(outline[0]!.shape).toBe(true)
     const pts = outline[0]!.vertices.map((v) => [v.x, v.y] as Point)
     expect(Math.abs(shoelace(pts) - shoelace(plate.outline))).toBeLessThanOrEqual(perimeter(plate.outline) * 0.1)
-    // Every through-hole comes back where the plate has it: routed openings as inside profiles,
-    // hole-sawn ones on a non-cut layer named with the saw, centre and index holes on the drill layer.
+    // Every through-hole comes back where the plate has it: pockets and openings as inside profiles
+    // (a file for a CNC router routes even the hole-saw sizes), centre and index holes on the drill layer.
     const routed = dxf.entities.filter((e) => e.layer === LAYER_INSIDE) as ICircleEntity[]
-    expect(routed).toHaveLength(plate.holes.filter((h) => h.method === 'routed').length)
+    expect(routed).toHaveLength(plate.holes.filter((h) => h.method !== 'drill').length)
     const sawn = dxf.entities.filter((e) => e.layer.startsWith('RP-HOLESAW-')) as ICircleEntity[]
-    expect(sawn).toHaveLength(plate.holes.filter((h) => h.method === 'hole-saw').length)
+    expect(sawn).toHaveLength(0)
     const drilled = dxf.entities.filter((e) => e.layer === 'RP-DRILL' && e.type === 'CIRCLE') as ICircleEntity[]
     const found = (h: { x: number; y: number; diameter: number }, among: ICircleEntity[]) =>
       among.find((c) => Math.hypot(c.center.x - h.x, c.center.y - h.y) < 1e-3 && Math.abs(2 * c.radius - h.diameter) < 1e-3)
     const circles: ICircleEntity[] = []
     for (const h of plate.holes) {
-      const c = found(h, h.method === 'routed' ? routed : h.method === 'hole-saw' ? sawn : drilled)
+      const c = found(h, h.method === 'drill' ? drilled : routed)
       expect(c, `${h.id} in the file`).toBeDefined()
       circles.push(c!)
     }

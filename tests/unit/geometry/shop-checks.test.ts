@@ -188,7 +188,7 @@ describe('sheet fit with the edge margin and kerf', () => {
     const plate = build(disc)
     expect(plate.metrics.width).toBeCloseTo(1218.8, 0)
     expect(plate.findings.map((f) => f.code)).toContain('larger-than-sheet')
-    // 1218.8 + 6.35 > 1219.2 - 2 x 12.7 = 1193.8
+    // 1218.8 > 1219.2 - 2 x 12.7 = 1193.8 (the kerf is kept between parts, not at the sheet's margin)
   })
   it('fits with no margin and no kerf', () => {
     expect(codes({ ...disc, cutting: { edgeMargin: 0, kerf: 0 } })).not.toContain('larger-than-sheet')

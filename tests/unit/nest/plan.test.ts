@@ -6,7 +6,7 @@ import DxfParser from 'dxf-parser'
 import { PDFDocument } from 'pdf-lib'
 import { buildPlate, deriveForTube, inchesToMm, plateParamsSchema, presetParams, renderCutDxf } from '../../../geometry'
 import { planSheets, planSheetsAsync, renderLayoutDxf, renderLayoutPdf, type PlanEntry } from '../../../geometry/nest'
-import { shoelace, type Pt } from './checks'
+import { gap, shoelace, type Pt } from './checks'
 
 // 48 x 96 in (PS 1-19); 1 in = 25.4 mm (NIST SP 811).
 const SHEET = { width: inchesToMm(48), height: inchesToMm(96), margin: inchesToMm(0.5), kerf: inchesToMm(0.25), thickness: inchesToMm(0.703) }
@@ -20,6 +20,69 @@ function column(layers: number, count: number, tubeInches = 12.5): PlanEntry {
 function netArea(e: PlanEntry): number {
   return Math.abs(shoelace(e.plate.outline as Pt[])) - e.plate.holes.reduce((s, h) => s + (Math.PI * h.diameter ** 2) / 4, 0)
 }
+
+type Circle = { layer: string; x: number; y: number; r: number }
+
+/** The CIRCLE entities of a DXF read back by dxf-parser, layer, centre and radius. */
+function circlesIn(d: any): Circle[] {
+  return d.entities.filter((x: any) => x.type === 'CIRCLE').map((c: any) => ({ layer: c.layer, x: c.center.x, y: c.center.y, r: c.radius }))
+}
+
+/** A plate-file point turned `deg` counter-clockwise about the plate's origin, then moved by `at` (mm), in inches: by hand. */
+function placed(x: number, y: number, deg: number, at: [number, number]): [number, number] {
+  const t = (deg * Math.PI) / 180
+  return [x * Math.cos(t) - y * Math.sin(t) + at[0] / 25.4, x * Math.sin(t) + y * Math.cos(t) + at[1] / 25.4]
+}
+
+describe('the sheet DXF carries every hole of every placed plate', () => {
+  it.each(['routed', 'hole-saw'] as const)('%s: every circle of each part\'s own cut file, turned and moved, on the same layer; nothing else', (openings) => {
+    const e = column(2, 3)
+    const plan = planSheets([e], { sheet: SHEET, workflow: 'layers' })
+    const parser = new DxfParser()
+    for (let index = 0; index < plan.layouts.length; index++) {
+      const sheet = parser.parseSync(renderLayoutDxf(plan, [e], index, { units: 'in', openings }))!
+      const got = circlesIn(sheet)
+      const expected: Circle[] = []
+      for (const part of plan.layouts[index]!.parts) {
+        const own = parser.parseSync(renderCutDxf(e.plate, { units: 'in', layer: part.layer, includeReference: false, openings }))!
+        for (const c of circlesIn(own)) {
+          const [x, y] = placed(c.x, c.y, part.turn, part.at as [number, number])
+          expected.push({ layer: c.layer, x, y, r: c.r })
+        }
+      }
+      // Each expected circle found once (1e-6 in), and no circle beyond them.
+      const left = [...got]
+      for (const c of expected) {
+        const k = left.findIndex((g) => g.layer === c.layer && Math.hypot(g.x - c.x, g.y - c.y) < 1e-6 && Math.abs(g.r - c.r) < 1e-9)
+        expect(k, `${c.layer} circle at ${c.x.toFixed(3)}, ${c.y.toFixed(3)}`).toBeGreaterThanOrEqual(0)
+        left.splice(k, 1)
+      }
+      expect(left).toEqual([])
+      // By hand: each column plate has 3 pockets and 3 access openings (preset), 1 centre and 2 index holes.
+      const parts = plan.layouts[index]!.parts.length
+      const pocketsAndOpenings = e.plate.holes.filter((h) => h.kind === 'pocket' || h.kind === 'access').length
+      expect(pocketsAndOpenings).toBe(6)
+      if (openings === 'routed') expect(got.filter((c) => c.layer === 'RP-INSIDE-CUT')).toHaveLength(parts * 6)
+      else {
+        expect(got.filter((c) => c.layer.startsWith('RP-HOLESAW-'))).toHaveLength(parts * 6)
+        // Pilots and drilled holes: 6 pilots + 1 centre + 2 index per part.
+        expect(got.filter((c) => c.layer === 'RP-DRILL')).toHaveLength(parts * 9)
+      }
+      // Rabbets on the top layers only, on a layer named with the depth (3/8 in).
+      const tops = plan.layouts[index]!.parts.filter((p) => p.layer === 'top').length
+      expect(got.filter((c) => c.layer === 'RP-RABBET-0.375IN')).toHaveLength(tops * 3)
+      // The notes name every part and every hole kind.
+      const notes = sheet.entities.filter((x: any) => x.layer === 'RP-NOTES' && x.type === 'TEXT').map((x: any) => x.text as string).join('\n')
+      expect(notes).toMatch(new RegExp(`Sheet ${index + 1} of ${plan.layouts.length}`))
+      for (let k = 1; k <= parts; k++) expect(notes).toContain(`Part ${k}: Column`)
+      expect(notes).toMatch(/3 pockets/)
+      expect(notes).toMatch(/3 access openings/)
+      expect(notes).toMatch(/Hole saws: /)
+      // No text on a cut layer.
+      expect(sheet.entities.some((x: any) => x.layer !== 'RP-NOTES' && ['TEXT', 'MTEXT'].includes(x.type))).toBe(false)
+    }
+  })
+})
 
 describe('planSheets', () => {
   it('cut first: a three-layer plate is a top and two lower parts; glue on two faces of each plate', () => {
@@ -58,6 +121,36 @@ describe('planSheets', () => {
     expect(plan.spare).toEqual([false])
   })
 
+  it('keeps the kerf between every two parts of every sheet and every part inside the margin (brute-force distances)', () => {
+    // Eight plates of two sizes, two layers each, cut first: 32 parts, packed as tight as the nester can.
+    const entries = [column(2, 4, 10.5), column(2, 4, 14.5)]
+    const plan = planSheets(entries, { sheet: SHEET, workflow: 'layers' })
+    let pairs = 0
+    let closest = Infinity
+    for (const layout of plan.layouts) {
+      for (const p of layout.parts) {
+        for (const [x, y] of p.outline) {
+          // The polygon engine works to the micrometre.
+          expect(x).toBeGreaterThanOrEqual(SHEET.margin - 1e-3)
+          expect(y).toBeGreaterThanOrEqual(SHEET.margin - 1e-3)
+          expect(x).toBeLessThanOrEqual(SHEET.width - SHEET.margin + 1e-3)
+          expect(y).toBeLessThanOrEqual(SHEET.height - SHEET.margin + 1e-3)
+        }
+      }
+      for (let i = 0; i < layout.parts.length; i++) {
+        for (let j = i + 1; j < layout.parts.length; j++) {
+          const d = gap(layout.parts[i]!.outline as Pt[], layout.parts[j]!.outline as Pt[], 2 * SHEET.kerf)
+          closest = Math.min(closest, d)
+          pairs++
+          expect(d).toBeGreaterThanOrEqual(SHEET.kerf - 5e-3)
+        }
+      }
+    }
+    expect(pairs).toBeGreaterThan(0)
+    // Packed tight, not merely apart: the closest two parts are within a few millimetres of the kerf.
+    expect(closest).toBeLessThan(SHEET.kerf + 6)
+  })
+
   it('writes a sheet DXF whose parts are the plate\'s cut file turned and moved, and a PDF page per sheet', async () => {
     const e = column(2, 3)
     const plan = planSheets([e], { sheet: SHEET, workflow: 'layers' })
@@ -78,17 +171,12 @@ describe('planSheets', () => {
         expect(y).toBeLessThanOrEqual(95.5 + 1e-6)
       }
     }
-    // Every layer the sheet file uses is one of the plate's own cut layers, or the sheet outline.
+    // Every layer the sheet file uses is one of the plate's own cut layers, the notes, or the sheet outline.
     const ownLayers = new Set(Object.keys(own.tables.layer.layers))
     const sheetLayers = new Set(sheet.entities.map((x: any) => x.layer as string))
     for (const name of sheetLayers) expect(name === 'RP-SHEET' || ownLayers.has(name), name).toBe(true)
-    // Circles: the plate's drilled and routed holes, once per part (hole-saw guide circles are never cut).
-    const cutCircles = (d: any) => d.entities.filter((x: any) => x.type === 'CIRCLE' && !x.layer.startsWith('RP-HOLESAW-') && x.layer !== 'RP-REFERENCE').length
-    const tops = plan.layouts[0]!.parts.filter((p) => p.layer === 'top').length
-    const bottoms = plan.layouts[0]!.parts.length - tops
-    const bottomFile = parser.parseSync(renderCutDxf(e.plate, { units: 'in', layer: 'bottom' }))!
-    expect(cutCircles(sheet)).toBe(tops * cutCircles(own) + bottoms * cutCircles(bottomFile))
-
+    expect(sheetLayers.has('RP-NOTES')).toBe(true)
+    expect(sheetLayers.has('RP-INSIDE-CUT')).toBe(true)
     const pdf = await PDFDocument.load(await renderLayoutPdf(plan, [e], { units: 'mm' }))
     expect(pdf.getPageCount()).toBe(plan.layouts.length)
     // Letter, 612 x 792 pt (ASME Y14.1).

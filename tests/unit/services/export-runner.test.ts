@@ -14,7 +14,7 @@ import { ExportRunner, ExportsBusyError, ExportsQueueFullError, findWorkerFile }
 import { bundleExportWorker } from '../../../scripts/export-worker-build'
 
 const revision = { number: 3, params: { tubeDiameter: 304.8 }, designName: 'Runner test elm', sizeLabel: null, createdAt: new Date('2026-03-01T12:00:00Z') }
-const dxfJob = (units: 'in' | 'mm'): Extract<ExportJob, { kind: 'cut-dxf' }> => ({ kind: 'cut-dxf', revision, query: { units, reference: true, mirror: false, layer: 'all' } })
+const dxfJob = (units: 'in' | 'mm'): Extract<ExportJob, { kind: 'cut-dxf' }> => ({ kind: 'cut-dxf', revision, query: { units, reference: true, mirror: false, layer: 'all', openings: 'routed' } })
 
 /** A stand-in writer whose jobs finish only when the test says so. */
 function heldWriter() {
