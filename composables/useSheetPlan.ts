@@ -1,8 +1,8 @@
 import type { SheetPlanRequest } from '~~/shared/utils/sheet-plans'
 import { fileNameFrom, saveBlob } from '~/utils/save-file'
-import type { sheetPlan } from '~~/server/services/sheet-plans'
+import type { SheetPlanView } from '~~/server/services/sheet-plan-jobs'
 
-export type SheetPlanView = Awaited<ReturnType<typeof sheetPlan>>
+export type { SheetPlanView }
 
 /**
  * The sheet plan for a request that changes as the person types: asked for
