@@ -94,7 +94,8 @@ export class ExportRunner {
   }
 
   async run(job: ExportJob, who: ExportOwner | string): Promise<ExportResult> {
-    const owner = typeof who === 'string' ? { key: who, shop: who } : who
+    // A bare key (scripts, tests) queues with every other bare key, as one shop.
+    const owner = typeof who === 'string' ? { key: who, shop: '' } : who
     const key = exportKey(job, this.options.buildStamp)
     const cached = this.cache.get(key)
     if (cached !== undefined) return { body: cached, cache: 'hit' }
