@@ -73,6 +73,15 @@ export class ExportPool {
     return task
   }
 
+  /**
+   * Starts every worker now rather than at its first job: loading the
+   * bundle (a few MB of code) is then done when the server starts, not while
+   * a member waits, and the first costly request finds its worker ready.
+   */
+  warm(): void {
+    while (!this.closed && this.slots.length < this.size) this.spawn()
+  }
+
   async close(): Promise<void> {
     this.closed = true
     for (const queue of this.queues.values()) for (const task of queue) task.reject(new Error('The export pool is closed'))

@@ -43,7 +43,9 @@ let runner: ExportRunner | null = null
 export function exportRunner(): ExportRunner {
   if (runner) return runner
   const wanted = process.env.EXPORT_WORKERS === undefined || process.env.EXPORT_WORKERS === '' ? defaultPoolSize() : Number(process.env.EXPORT_WORKERS)
-  const file = process.env.EXPORT_WORKER_FILE || findWorkerFile(dirname(fileURLToPath(import.meta.url)))
+  // Before the entry module has run (a plugin at start-up), Nitro's import.meta.url
+  // is a stand-in; the entry's own path (process.argv[1]) finds the bundle then.
+  const file = process.env.EXPORT_WORKER_FILE || findWorkerFile(dirname(fileURLToPath(import.meta.url))) || (process.argv[1] ? findWorkerFile(dirname(process.argv[1]), 0) : null)
   const size = Number.isInteger(wanted) && wanted > 0 ? wanted : 0
   const pool = file && size > 0 ? new ExportPool(file, size) : null
   runner = new ExportRunner({ pool, buildStamp: useRuntimeConfig().app.buildId || 'dev' })
