@@ -1,8 +1,11 @@
 import type { SheetPlanRequest } from '~~/shared/utils/sheet-plans'
 import { fileNameFrom, saveBlob } from '~/utils/save-file'
-import type { sheetPlan } from '~~/server/services/sheet-plans'
+import type { SheetPlanView } from '~~/server/services/sheet-plan-jobs'
 
-export type SheetPlanView = Awaited<ReturnType<typeof sheetPlan>>
+export type { SheetPlanView }
+
+const BUSY_RETRY_MS = 1000
+const BUSY_TRIES = 60
 
 /**
  * The sheet plan for a request that changes as the person types: asked for
@@ -17,7 +20,7 @@ export function useSheetPlan(request: Ref<SheetPlanRequest | null>) {
   let controller: AbortController | null = null
   let timer: ReturnType<typeof setTimeout> | undefined
 
-  async function run(body: SheetPlanRequest) {
+  async function run(body: SheetPlanRequest, tries = 0) {
     controller?.abort()
     const mine = new AbortController()
     controller = mine
@@ -30,6 +33,13 @@ export function useSheetPlan(request: Ref<SheetPlanRequest | null>) {
     catch (err: unknown) {
       if (mine.signal.aborted) return
       const info = errorInfo(err)
+      // 429: plans this page asked for and then abandoned as the person typed are still
+      // being nested on the server (each member has two at a time); ask again shortly.
+      if (info.status === 429 && tries < BUSY_TRIES) {
+        await new Promise(resolve => setTimeout(resolve, BUSY_RETRY_MS))
+        if (controller === mine && !mine.signal.aborted) return run(body, tries + 1)
+        return
+      }
       error.value = info.message
       fields.value = info.fields
     }

@@ -11,7 +11,7 @@ npx tsx scripts/migrate.ts >/dev/null
 npx tsx scripts/seed.ts >/dev/null
 
 for bench in scripts/bench/*.ts; do
-  case "$(basename "$bench")" in canvas.ts|load.ts|export-load.ts|accounts-load.ts) continue ;; esac
+  case "$(basename "$bench")" in canvas.ts|load.ts|export-load.ts|accounts-load.ts|stalls.ts) continue ;; esac
   echo "== $(basename "$bench" .ts)"
   npx tsx "$bench"
   echo
@@ -19,7 +19,7 @@ done
 
 ensure_chromium
 ensure_build
-# These two drive the built server.
+# These drive the built server.
 echo "== load"
 npx tsx scripts/bench/load.ts
 echo
@@ -28,6 +28,8 @@ npx tsx scripts/bench/export-load.ts
 echo
 echo "== accounts-load"
 npx tsx scripts/bench/accounts-load.ts
+echo "== stalls"
+npx tsx scripts/bench/stalls.ts
 echo
 echo "== canvas"
 npx tsx scripts/bench/canvas.ts

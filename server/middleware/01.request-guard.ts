@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
-import { bodyRule, readBodyWithin } from '../utils/request-limits'
+import { bodyRule, bodyTimeoutMs, readBodyWithin } from '../utils/request-limits'
+import { jsonDepthOver, MAX_JSON_DEPTH } from '../utils/validation'
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS'])
 
@@ -41,7 +42,8 @@ function tooLarge(limit: number) {
  * One guard in front of every API route, before any body is read:
  * no caching of answers; for changes, same-origin only, JSON only (multipart
  * where files are taken), and a body limit per route, checked on the
- * declared length and again on the bytes that actually arrive.
+ * declared length and again on the bytes that actually arrive; a JSON body
+ * must arrive within a deadline and nest at most MAX_JSON_DEPTH levels.
  */
 export default defineEventHandler(async (event) => {
   const path = event.path
@@ -73,6 +75,10 @@ export default defineEventHandler(async (event) => {
   // reading it here as well would leave that reader waiting on a stream already ended.
   if (rule.multipart && type === 'multipart/form-data') return
   // Read once, here, within the limit; h3's body readers take it from _requestBody.
-  const body = await readBodyWithin(event, rule.limit, () => tooLarge(rule.limit))
+  // A sender that trickles its body is answered 408 once the deadline passes.
+  const body = await readBodyWithin(event, rule.limit, () => tooLarge(rule.limit), bodyTimeoutMs())
+  // Nesting is counted on the raw text before anything parses or walks it, so a
+  // body of 4,000 nested arrays costs one linear pass, not a deep recursion.
+  if (jsonDepthOver(body)) refuse(400, 'Bad Request', `The request body nests deeper than ${MAX_JSON_DEPTH} levels`, 'too-deep')
   ;(event as unknown as { _requestBody?: Buffer })._requestBody = body
 })

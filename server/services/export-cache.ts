@@ -60,6 +60,12 @@ function sizeOf(value: Uint8Array | string): number {
  * part of the build, so it is left out.
  */
 export function exportKey(job: ExportJob, buildStamp: string): string {
-  const { kind, revision, query } = job
-  return createHash('sha256').update(JSON.stringify([buildStamp, kind, revision, query])).digest('base64url')
+  if ('revision' in job && 'query' in job) {
+    const { kind, revision, query } = job
+    return createHash('sha256').update(JSON.stringify([buildStamp, kind, revision, query])).digest('base64url')
+  }
+  // The other jobs (plans, labels, plate figures) are keyed by all they carry but
+  // the font, and a plan's files by the plan's key rather than its long text.
+  const { font: _font, plan: _plan, ...rest } = job as ExportJob & { font?: unknown; plan?: unknown }
+  return createHash('sha256').update(JSON.stringify([buildStamp, rest])).digest('base64url')
 }

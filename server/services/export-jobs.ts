@@ -1,8 +1,9 @@
-// One export, described as plain data so that it can be posted to a worker
-// thread and run there (server/workers/export-worker.ts) or, without a worker,
-// in the server's own thread. Nothing here may use Nitro's auto-imports or the
-// database: the worker bundle holds only this module, the export service and
-// the geometry. Errors are thrown as h3 errors (422 with field messages) and
+// One export (or other costly job: a sheet plan and its files, a label sheet,
+// the figures of a show's plates), described as plain data so that it can be
+// posted to a worker thread and run there (server/workers/export-worker.ts) or,
+// without a worker, in the server's own thread. Nothing here may use Nitro's
+// auto-imports or the database: the worker bundle holds only this module, the
+// services it names and the geometry. Errors are thrown as h3 errors (422 with field messages) and
 // carried back across the thread as data.
 import type { z } from 'zod'
 import { PAPERS, tilePlate, planTubeWrap, type FontBytes } from '../../geometry/export'
@@ -13,6 +14,9 @@ import {
 } from './exports'
 import { buildSheetPdf, type BuildSheetRevision, type buildSheetQuerySchema } from './build-sheet'
 import { skirtProfilesPdf, type skirtProfilesQuerySchema } from './skirt'
+import { nestPlanJob, planDxfJob, planPdfJob, type PlanJobEntry, type PlanSettingsInput } from './sheet-plan-jobs'
+import { renderLabelSheet, type LabelItem } from './labels'
+import { plateFigures } from './plate-figures'
 
 /**
  * The most sheets one tiled PDF may have. Our own choice: 200 Letter sheets
@@ -30,6 +34,13 @@ export type ExportJob =
   | { kind: 'build-sheet'; revision: BuildSheetRevision; query: z.output<typeof buildSheetQuerySchema>; font: FontBytes }
   | { kind: 'skirt-profiles'; revision: RevisionForExport; query: z.output<typeof skirtProfilesQuerySchema>; font: FontBytes }
 
+  | { kind: 'sheet-plan'; entries: PlanJobEntry[]; settings: PlanSettingsInput; timeLimit: number }
+  // `plan` is the nested plan's JSON text; `planKey` names it for the cache in its place.
+  | { kind: 'sheet-plan-pdf'; entries: PlanJobEntry[]; plan: string; planKey: string; units: 'in' | 'mm'; font: FontBytes }
+  | { kind: 'sheet-plan-dxf'; entries: PlanJobEntry[]; plan: string; planKey: string; index: number; units: 'in' | 'mm'; openings: 'routed' | 'hole-saw' }
+  | { kind: 'labels'; items: LabelItem[]; origin: string; font: FontBytes }
+  | { kind: 'plate-figures'; revisions: { id: string; params: unknown }[] }
+
 export type ExportKind = ExportJob['kind']
 
 /** A 422 on `paper` when a tiled file would need more sheets than anyone would tape together. */
@@ -42,8 +53,15 @@ export function refuseTooManySheets(sheets: number, paper: keyof typeof PAPERS, 
   )
 }
 
-/** Builds the plate from the stored params and writes the file. */
+/** Builds the plate from the stored params and writes the file (or runs the other costly work). */
 export async function runExportJob(job: ExportJob): Promise<Uint8Array | string> {
+  switch (job.kind) {
+    case 'sheet-plan': return nestPlanJob(job.entries, job.settings, job.timeLimit)
+    case 'sheet-plan-pdf': return planPdfJob(job.entries, job.plan, job.units, job.font)
+    case 'sheet-plan-dxf': return planDxfJob(job.entries, job.plan, job.index, job.units, job.openings)
+    case 'labels': return renderLabelSheet(job.items, { origin: job.origin, font: job.font })
+    case 'plate-figures': return JSON.stringify(Object.fromEntries(job.revisions.map(r => [r.id, plateFigures(r.params)])))
+  }
   const built = plateFromRevision(job.revision)
   if (!built.ok) invalid(built.fields, 'This revision was saved with params that no longer pass the checks; open it in the editor and save it again')
   const plate = built.plate

@@ -1,6 +1,9 @@
-// A fixed pool of worker threads for export files, so a 900-sheet template
-// never holds up other requests on the server's event loop. Jobs queue first
-// in, first out; a worker that dies fails only its own job and is replaced.
+// A fixed pool of worker threads for export files and other costly work
+// (sheet plans, label sheets, plate figures), so none of it holds up other
+// requests on the server's event loop. Jobs queue by group (a shop), first in,
+// first out within a group, the groups taking turns: a shop with many jobs
+// waiting never keeps another shop's one job from the next free worker. A
+// worker that dies fails only its own job and is replaced.
 import { availableParallelism } from 'node:os'
 import { Worker } from 'node:worker_threads'
 import type { ExportJob } from './export-jobs'
@@ -28,37 +31,70 @@ export function defaultPoolSize(cores = availableParallelism()): number {
 
 export class ExportPool {
   private slots: Slot[] = []
-  private queue: Task[] = []
+  /** Waiting jobs by group, in the order the groups take turns. */
+  private queues = new Map<string, Task[]>()
   private nextId = 1
   private closed = false
 
   constructor(readonly file: string, readonly size: number, readonly timeoutMs = EXPORT_JOB_TIMEOUT_MS) {}
 
   /** Jobs waiting for a free worker. */
-  get waiting(): number { return this.queue.length }
+  get waiting(): number {
+    let n = 0
+    for (const q of this.queues.values()) n += q.length
+    return n
+  }
+  /** Jobs of one group waiting for a free worker. */
+  waitingFor(group: string): number { return this.queues.get(group)?.length ?? 0 }
+  /** Groups with jobs waiting. */
+  get groupsWaiting(): number { return this.queues.size }
   /** Jobs being written now. */
   get running(): number { return this.slots.filter(s => s.task).length }
 
-  run(job: ExportJob): Promise<Uint8Array | string> {
+  /** `group` names whose turn the job waits for (a shop); jobs of one group run in order. */
+  run(job: ExportJob, group = ''): Promise<Uint8Array | string> {
     if (this.closed) return Promise.reject(new Error('The export pool is closed'))
     return new Promise((resolve, reject) => {
-      this.queue.push({ job, resolve, reject })
+      const queue = this.queues.get(group)
+      if (queue) queue.push({ job, resolve, reject })
+      else this.queues.set(group, [{ job, resolve, reject }])
       this.pump()
     })
   }
 
+  /** The next job: the first of the group whose turn it is; that group then goes to the back of the line. */
+  private next(): Task | undefined {
+    const first = this.queues.entries().next()
+    if (first.done) return undefined
+    const [group, queue] = first.value
+    const task = queue.shift()!
+    this.queues.delete(group)
+    if (queue.length) this.queues.set(group, queue)
+    return task
+  }
+
+  /**
+   * Starts every worker now rather than at its first job: loading the
+   * bundle (a few MB of code) is then done when the server starts, not while
+   * a member waits, and the first costly request finds its worker ready.
+   */
+  warm(): void {
+    while (!this.closed && this.slots.length < this.size) this.spawn()
+  }
+
   async close(): Promise<void> {
     this.closed = true
-    for (const task of this.queue.splice(0)) task.reject(new Error('The export pool is closed'))
+    for (const queue of this.queues.values()) for (const task of queue) task.reject(new Error('The export pool is closed'))
+    this.queues.clear()
     await Promise.all(this.slots.map(s => s.worker.terminate()))
     this.slots = []
   }
 
   private pump(): void {
-    while (this.queue.length > 0) {
+    while (this.queues.size > 0) {
       const slot = this.slots.find(s => !s.task) ?? (this.slots.length < this.size ? this.spawn() : undefined)
       if (!slot) return
-      const task = this.queue.shift()!
+      const task = this.next()!
       slot.task = task
       slot.id = this.nextId++
       const request: WorkerRequest = { id: slot.id, job: task.job }

@@ -3,6 +3,7 @@ import { PDFDocument, rgb } from 'pdf-lib'
 import QRCode from 'qrcode'
 import { unpackWoff } from '../../geometry/export/fonts'
 import { unitKindLabels, unitStatusLabels, type UnitKind, type UnitStatus } from '../../shared/utils/units'
+import { invalid } from '../utils/validation'
 
 export interface LabelItem { id: string; label: string; kind: UnitKind; status: UnitStatus; designName: string | null; revisionNumber: number | null; sizeLabel: string | null }
 
@@ -12,6 +13,23 @@ const PAGE = { width: 8.5 * PT, height: 11 * PT }
 const CELL = { width: 3.75 * PT, height: 2 * PT, cols: 2, rows: 5 }
 const MARGIN = { x: (PAGE.width - 2 * 3.75 * PT) / 2, y: (PAGE.height - 5 * 2 * PT) / 2 }
 const QR_SIZE = 1.6 * PT
+
+/**
+ * The most labels one sheet request prints: 20 Letter pages of ten. Our own
+ * choice, the same as the most units one may tick at once; a register larger
+ * than that prints in parts (a filter, or chosen units). The sheet is drawn on
+ * an export worker, never on the server's own thread.
+ */
+export const MAX_LABELS_PER_SHEET = 200
+
+/** A 422 when a request would print more labels than one sheet takes. */
+export function refuseTooManyLabels(count: number): void {
+  if (count <= MAX_LABELS_PER_SHEET) return
+  invalid(
+    { ids: `These would be ${count} labels; one sheet prints at most ${MAX_LABELS_PER_SHEET}. Narrow the list (by stage, kind, design or search) or tick the units to print.` },
+    `Too many labels: ${count}, at most ${MAX_LABELS_PER_SHEET}`,
+  )
+}
 
 /** The address a label's code opens: the unit's own page. */
 export const unitPageUrl = (origin: string, id: string) => `${origin.replace(/\/$/, '')}/units/${id}`

@@ -3,7 +3,7 @@
 import { and, asc, eq, isNotNull, isNull, ne, sql } from 'drizzle-orm'
 import type { Database } from '../utils/db'
 import { activity, designs, revisions, shows } from '../database/schema'
-import { buildPlate, plateParamsSchema } from '../../geometry/core'
+import { plateFigures, type PlateFigures } from './plate-figures'
 import type { Actor } from './designs'
 import { latestRevisionOf, designWithLatestColumns } from './designs'
 
@@ -112,22 +112,45 @@ export interface ShowDetail extends ShowRow {
 }
 
 /**
- * A show with its live designs, each rebuilt from its latest revision on the
- * server (nothing computed is taken from a client), and the totals the shop
- * orders and lifts by: plates and their weight, each times its quantity.
+ * The figures of each revision's plate, kept by revision id: revisions never
+ * change, so a plate is built once, not on every view of every show. Least
+ * recently used first out; a few hundred bytes each.
  */
-export async function getShow(db: Database, shopId: string, id: string): Promise<ShowDetail | null> {
+const figuresByRevision = new Map<string, PlateFigures>()
+const FIGURES_KEPT = 20_000
+
+function keep(id: string, figures: PlateFigures): void {
+  figuresByRevision.delete(id)
+  figuresByRevision.set(id, figures)
+  while (figuresByRevision.size > FIGURES_KEPT) figuresByRevision.delete(figuresByRevision.keys().next().value!)
+}
+
+/** Builds the plates of revisions not yet seen (on the worker pool, through the route's runner). */
+export type BuildFigures = (revisions: { id: string; params: unknown }[]) => Promise<Record<string, PlateFigures>>
+
+/** Builds them in this thread: for scripts and tests without a pool. */
+export const buildFiguresHere: BuildFigures = async revisions => Object.fromEntries(revisions.map(r => [r.id, plateFigures(r.params)]))
+
+/**
+ * A show with its live designs, each with the figures of its latest
+ * revision's plate as the server builds it (nothing computed is taken from a
+ * client; each revision's plate built once, on a worker), and the totals the
+ * shop orders and lifts by: plates and their weight, each times its quantity.
+ * `built` says how many plates this answer had to build.
+ */
+export async function getShow(db: Database, shopId: string, id: string, build: BuildFigures = buildFiguresHere): Promise<{ show: ShowDetail; built: number } | null> {
   const show = await showRow(db, shopId, id)
   if (!show) return null
   const rows = await db.select(designWithLatestColumns).from(designs)
     .innerJoin(revisions, latestRevisionOf)
     .where(and(eq(designs.shopId, shopId), eq(designs.showId, id), isNull(designs.archivedAt)))
     .orderBy(asc(sql`lower(${designs.name})`), asc(sql`(${revisions.params}->>'tubeDiameter')::float8`))
+  const missing = rows.filter(r => !figuresByRevision.has(r.revisionId))
+  const unique = [...new Map(missing.map(r => [r.revisionId, { id: r.revisionId, params: r.params }])).values()]
+  const made = unique.length ? await build(unique) : {}
+  for (const r of unique) if (made[r.id]) keep(r.id, made[r.id]!)
   const out: ShowDesign[] = rows.map((r) => {
-    const parsed = plateParamsSchema.safeParse(r.params)
-    const base = { id: r.id, name: r.name, sizeLabel: r.sizeLabel, quantity: r.quantity, archivedAt: r.archivedAt, parentDesignId: r.parentDesignId, latest: { id: r.revisionId, number: r.number } }
-    if (!parsed.success) return { ...base, tubeDiameter: null, weight: null, width: null, height: null, errors: 1, warnings: 0 }
-    const plate = buildPlate(parsed.data)
+    const figures = made[r.revisionId] ?? figuresByRevision.get(r.revisionId)!
     return {
       id: r.id,
       name: r.name,
@@ -136,21 +159,19 @@ export async function getShow(db: Database, shopId: string, id: string): Promise
       archivedAt: r.archivedAt,
       parentDesignId: r.parentDesignId,
       latest: { id: r.revisionId, number: r.number },
-      tubeDiameter: plate.params.tubeDiameter,
-      weight: plate.metrics.weight,
-      width: plate.metrics.width,
-      height: plate.metrics.height,
-      errors: plate.findings.filter(f => f.severity === 'error').length,
-      warnings: plate.findings.filter(f => f.severity === 'warning').length,
+      ...figures,
     }
   })
   return {
-    ...show,
-    designs: out,
-    totals: {
-      designs: out.length,
-      plates: out.reduce((n, d) => n + d.quantity, 0),
-      weight: out.reduce((w, d) => w + d.quantity * (d.weight ?? 0), 0),
+    built: unique.length,
+    show: {
+      ...show,
+      designs: out,
+      totals: {
+        designs: out.length,
+        plates: out.reduce((n, d) => n + d.quantity, 0),
+        weight: out.reduce((w, d) => w + d.quantity * (d.weight ?? 0), 0),
+      },
     },
   }
 }

@@ -1,11 +1,13 @@
 import { fileURLToPath } from 'node:url'
 import { dirname } from 'node:path'
 import type { H3Event } from 'h3'
+import { eq } from 'drizzle-orm'
 import { getRevision } from '../services/designs'
 import type { BuildSheetRevision } from '../services/build-sheet'
 import type { ExportJob } from '../services/export-jobs'
 import { ExportJobError, ExportPool, defaultPoolSize } from '../services/export-pool'
-import { ExportRunner, ExportsBusyError, ExportsQueueFullError, findWorkerFile } from '../services/export-runner'
+import { ExportRunner, ExportsBusyError, ExportsQueueFullError, findWorkerFile, type ExportOwner } from '../services/export-runner'
+import { shares } from '../database/schema'
 import type { Member } from './auth'
 
 /** The revision named in the route (of the member's shop), as the export jobs take it; 404 otherwise. */
@@ -41,24 +43,45 @@ let runner: ExportRunner | null = null
 export function exportRunner(): ExportRunner {
   if (runner) return runner
   const wanted = process.env.EXPORT_WORKERS === undefined || process.env.EXPORT_WORKERS === '' ? defaultPoolSize() : Number(process.env.EXPORT_WORKERS)
-  const file = process.env.EXPORT_WORKER_FILE || findWorkerFile(dirname(fileURLToPath(import.meta.url)))
+  // Before the entry module has run (a plugin at start-up), Nitro's import.meta.url
+  // is a stand-in; the entry's own path (process.argv[1]) finds the bundle then.
+  const file = process.env.EXPORT_WORKER_FILE || findWorkerFile(dirname(fileURLToPath(import.meta.url))) || (process.argv[1] ? findWorkerFile(dirname(process.argv[1]), 0) : null)
   const size = Number.isInteger(wanted) && wanted > 0 ? wanted : 0
   const pool = file && size > 0 ? new ExportPool(file, size) : null
   runner = new ExportRunner({ pool, buildStamp: useRuntimeConfig().app.buildId || 'dev' })
   return runner
 }
 
+/** Who a member's costly request counts against: the member, in the member's shop's turn. */
+export function memberOwner(member: Member): ExportOwner {
+  return { key: `member:${member.userId}`, shop: member.shopId }
+}
+
 /**
- * Makes (or takes from the cache) one export file and sends it. `owner` names
- * who waits for it (`member:<id>`, `share:<id>`): each may have only a few in
- * the making at once. `X-Rootplate-Cache` says whether the file was made now.
+ * Who a job counts against. A share link's downloads count against the member
+ * who made the link (one member's many links share that member's limit), in
+ * the link's shop's turn; a link whose maker has left counts as its shop's.
  */
-export async function sendExport(event: H3Event, job: ExportJob, owner: string, type: string, filename: string) {
+async function resolveOwner(event: H3Event, owner: string | ExportOwner): Promise<ExportOwner> {
+  if (typeof owner !== 'string') return owner
+  if (owner.startsWith('share:')) {
+    const [row] = await useDb().select({ createdBy: shares.createdBy, shopId: shares.shopId }).from(shares).where(eq(shares.id, owner.slice('share:'.length)))
+    if (!row) throw notFound('That share')
+    return { key: row.createdBy ? `member:${row.createdBy}` : `shop-links:${row.shopId}`, shop: row.shopId }
+  }
+  const member = event.context.member
+  return { key: owner, shop: member?.shopId ?? owner }
+}
+
+/**
+ * Runs one costly job (an export file, a sheet plan, a label sheet, plate
+ * figures) through the server's runner: from the cache, or on the worker
+ * pool within the owner's limit. A busy owner is a 429, a full queue a 503,
+ * both with Retry-After.
+ */
+export async function runCostly(event: H3Event, job: ExportJob, owner: string | ExportOwner) {
   try {
-    const { body, cache, madeBy } = await exportRunner().run(job, owner)
-    setResponseHeader(event, 'x-rootplate-cache', cache)
-    if (madeBy) setResponseHeader(event, 'x-rootplate-made-by', madeBy)
-    return sendFile(event, body, type, filename)
+    return await exportRunner().run(job, await resolveOwner(event, owner))
   }
   catch (err: unknown) {
     if (err instanceof ExportsBusyError) {
@@ -72,4 +95,17 @@ export async function sendExport(event: H3Event, job: ExportJob, owner: string, 
     if (err instanceof ExportJobError) throw createError(err.failure)
     throw err
   }
+}
+
+/**
+ * Makes (or takes from the cache) one export file and sends it. `owner` names
+ * who waits for it (`member:<id>`, `share:<id>`, counted against the member
+ * who made the link): each member may have only a few in the making at once.
+ * `X-Rootplate-Cache` says whether the file was made now.
+ */
+export async function sendExport(event: H3Event, job: ExportJob, owner: string | ExportOwner, type: string, filename: string) {
+  const { body, cache, madeBy } = await runCostly(event, job, owner)
+  setResponseHeader(event, 'x-rootplate-cache', cache)
+  if (madeBy) setResponseHeader(event, 'x-rootplate-made-by', madeBy)
+  return sendFile(event, body, type, filename)
 }

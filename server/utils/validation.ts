@@ -48,23 +48,63 @@ const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[
  * The path of the first string (value or key) anywhere in a parsed body that
  * PostgreSQL could not store, or null. Checked before any schema, so fields
  * passed through as JSON (params, details) are covered as well as names.
+ * Walked with an explicit stack, each value visited once and its path only
+ * built when something is found: linear in the body, whatever its depth (the
+ * request guard refuses bodies nested deeper than MAX_JSON_DEPTH before this).
  */
-export function unstorableText(value: unknown, path: string[] = []): string | null {
-  if (typeof value === 'string') return storableText(value) ? null : (path.join('.') || '_')
-  if (!value || typeof value !== 'object') return null
-  if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) {
-      const found = unstorableText(value[i], [...path, String(i)])
-      if (found) return found
-    }
-    return null
+export function unstorableText(value: unknown): string | null {
+  interface Step { value: unknown; parent: Step | null; key: string }
+  const pathOf = (step: Step | null, last?: string): string => {
+    const keys: string[] = last === undefined ? [] : [last]
+    for (let s = step; s && s.parent; s = s.parent) keys.push(s.key)
+    return keys.reverse().join('.') || '_'
   }
-  for (const [k, v] of Object.entries(value)) {
-    if (!storableText(k)) return [...path, '(key)'].join('.')
-    const found = unstorableText(v, [...path, k])
-    if (found) return found
+  const stack: Step[] = [{ value, parent: null, key: '' }]
+  while (stack.length) {
+    const step = stack.pop()!
+    const v = step.value
+    if (typeof v === 'string') {
+      if (!storableText(v)) return pathOf(step)
+      continue
+    }
+    if (!v || typeof v !== 'object') continue
+    // Pushed last to first, so the first bad string in document order is the one named.
+    if (Array.isArray(v)) {
+      for (let i = v.length - 1; i >= 0; i--) stack.push({ value: v[i], parent: step, key: String(i) })
+      continue
+    }
+    const entries = Object.entries(v)
+    for (const [k] of entries) if (!storableText(k)) return pathOf(step, '(key)')
+    for (let i = entries.length - 1; i >= 0; i--) stack.push({ value: entries[i]![1], parent: step, key: entries[i]![0] })
   }
   return null
+}
+
+/** The deepest nesting of arrays and objects a JSON body may have; no form of ours nests past a handful. */
+export const MAX_JSON_DEPTH = 32
+
+/**
+ * How deeply the JSON text nests its arrays and objects, counted on the raw
+ * bytes before any parsing (brackets inside strings do not count), stopping as
+ * soon as `max` is passed: one pass, no recursion, no allocation.
+ */
+export function jsonDepthOver(body: Uint8Array, max = MAX_JSON_DEPTH): boolean {
+  let depth = 0
+  let inString = false
+  for (let i = 0; i < body.length; i++) {
+    const c = body[i]!
+    if (inString) {
+      if (c === 0x5C) i++ // a backslash: the next byte is escaped
+      else if (c === 0x22) inString = false
+      continue
+    }
+    if (c === 0x22) inString = true
+    else if (c === 0x5B || c === 0x7B) {
+      if (++depth > max) return true
+    }
+    else if (c === 0x5D || c === 0x7D) depth--
+  }
+  return false
 }
 
 /**

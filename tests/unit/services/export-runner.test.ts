@@ -22,7 +22,7 @@ function heldWriter() {
   let calls = 0
   const write = (job: ExportJob) => {
     calls++
-    return new Promise<string>(resolve => waiting.push(() => resolve(`file for ${JSON.stringify(job.query)}`)))
+    return new Promise<string>(resolve => waiting.push(() => resolve(`file for ${JSON.stringify('query' in job ? job.query : job.kind)}`)))
   }
   return { write, release: () => waiting.splice(0).forEach(r => r()), calls: () => calls }
 }
