@@ -57,7 +57,7 @@ beforeAll(async () => {
     cookie: designer,
     body: {
       name: 'Build sheet unrated stump',
-      params: { tubeDiameter: 700, casterCount: 4, casterOffset: 12 * IN, pocketDiameter: 100, caster: { swivelLead: 1.5 * IN }, lobes: { irregularity: 0 }, unit: { load: { weight: 300, height: 36 * IN } } },
+      params: { tubeDiameter: 700, casterCount: 4, casterOffset: 12 * IN, pocketDiameter: 150, caster: { swivelLead: 1.5 * IN }, lobes: { irregularity: 0 }, unit: { load: { weight: 300, height: 36 * IN } } },
     },
   })
   expect(unrated.status).toBe(201)
@@ -97,9 +97,12 @@ describe('GET /api/revisions/:id/build-sheet.pdf', () => {
     const total = Number(/Total weight ([\d.]+) lb/.exec(text)![1])
     const worst = Number(/Load per caster \(worst\) ([\d.]+) lb/.exec(text)![1])
     expect(Math.abs(worst / total - 0.5)).toBeLessThan(0.01)
-    // Over a 500 kg rating: a problem on the sheet, and the revision was saved with it, so the header says so.
+    // Over a 500 kg rating: a problem on the sheet, and a plate error the revision was saved with, so the
+    // first page's saved-with-errors box names it (beside this stump's own pocket and opening errors).
     expect(text).toMatch(/Problem: The worst-loaded caster may carry/)
-    expect(text).toContain('SAVED WITH ERRORS (1)')
+    const header = text.slice(0, text.indexOf('Scale 1:'))
+    expect(header).toMatch(/SAVED WITH ERRORS \(\d+\)/)
+    expect(header).toMatch(/worst-loaded caster may carry [\d.]+ lb when the plate stands on three of its wheels/)
     expect(text).toContain('rated 1102.3 lb each (maker\'s figure)')
   })
 

@@ -47,6 +47,9 @@ async function open(designId: string, width = 1400, height = 1000): Promise<Page
   await signInThroughForm(page, member.email, member.password)
   await page.goto(`${inject('baseUrl')}/designs/${designId}`)
   await page.getByTestId('stability-panel').waitFor()
+  // Hydrated and settled before anything is typed: a field typed into before the page is live is not the page's.
+  await page.getByText('Preparing the drawing…').waitFor({ state: 'detached' })
+  await page.waitForLoadState('networkidle')
   return page
 }
 
