@@ -324,15 +324,13 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
     ['Total weight', `${M(s.totalWeight)}`, `plate ${M(s.parts.plate.kg)}, load ${M(s.parts.load.kg)}, counterweight ${M(s.parts.counterweight.kg)}, casters and pans ${M(s.parts.hardware.kg)}`],
     ['Centre of mass height', L(s.centreOfMassHeight), 'above the floor'],
     ['Leaves its wheels at (worst direction)', formatAngle(s.tippingAngle), `target ${formatAngle(a.unit.targetAngle)}: ${a.anglePasses ? 'reached' : `not reached; caster offset about ${a.remedy?.casterOffset != null ? L(a.remedy.casterOffset) : '-'} or ${need(a.blocksForAngle)}`}`],
-    ['Root reaches the floor at', s.rootTouchAngle >= 90 ? 'never' : formatAngle(s.rootTouchAngle), 'rock about the nearest wheels'],
-    ['Overturns at', formatAngle(s.overturnAngle), `about the outline's outer edge (${L(s.overturnDistance)} from the centre of mass)`],
-    ['Support distance', L(s.supportDistance), `wheels swivelled the worst way (lead ${L(s.swivelLead)})`],
+    ['Overturns at', formatAngle(s.overturnAngle), `about the outline's outer edge (${L(s.overturnDistance)} from the centre of mass); a root touches at ${s.rootTouchAngle >= 90 ? 'no lean' : formatAngle(s.rootTouchAngle)}`],
     ['Raked stage, stops', motion.rakes.map((r) => `${r.label} ${formatAngle(r.angle)}`).join(', '), `a stop or start over ${motion.liftStop.g.toFixed(3)} g lifts its wheels; ${motion.rakes.filter((r) => r.left <= 0).map((r) => `off its wheels on ${r.label}`).join(', ') || 'on its wheels on both rakes'}`],
     ['Push that lifts its wheels', `${F(s.tippingPush)} at ${L(s.pushHeight)}`, `check push ${F(a.checkPush)} (analogy): ${a.pushPasses ? 'stands it' : `does not, needs ${need(a.blocksForPush)}`}`],
     ['Load per caster (worst)', M(s.loadPerCaster), `any three of ${n} wheels; even share ${M(s.evenShare)}; rating ${a.casterRating !== null ? M(a.casterRating) : '________ (fill in)'}`],
     ['Rolling push', `${F(s.rollingPush.low)} to ${F(s.rollingPush.high)}`, '1-3 % of the weight on a smooth floor (from memory)'],
   ], [0, 150, 260])
-  page.para(tippingSequence(s, formatAngle), 8.5)
+  page.para(tippingSequence(s, formatAngle), 7.5)
   for (const f of a.findings) page.para(`${f.severity === 'error' ? 'Problem' : 'Check'}: ${f.message}`, 8.5, MARGIN, page.width - 2 * MARGIN, COLOURS.warn)
 
   page.heading('Cautions')

@@ -10,10 +10,10 @@ export const STABILITY_CAUTION_SHORT = 'Estimate only: the shop\'s qualified per
 export const STABILITY_CAUTIONS: readonly string[] = [
   'Every figure here is an estimate, not an engineering approval. The shop\'s qualified person, the venue\'s rules and local codes decide whether a unit is safe to build, load and roll.',
   'Assumed: a rigid unit on a level, hard floor; wheels that neither sink nor roll while the unit leans; every wheel swivelled the worst way (kingpins moved in by the swivel lead); the load centred on the plate at the centre-of-mass height entered; plywood, tube and steel at the stated densities.',
-  '"Leaves its wheels" is the lean at which one side\'s wheels lift; where a root reaches the floor first the unit then rocks onto that root, and it overturns only when its centre of mass passes the outline\'s outer edge. A unit off its wheels no longer rolls: keep moving units on their wheels.',
+  '"Leaves its wheels": one side\'s wheels lift; a unit then rocks onto a root where one reaches the floor, and overturns only past the outline\'s outer edge. Off its wheels it no longer rolls.',
   'The check push (13 % of the weight, at most 100 N, at up to 1.5 m, never above the unit) and the 10° lean are borrowed by analogy from an equipment-stability standard (IEC 62368-1); no published rule for scenery was found.',
-  'Caster loads: a rigid plate on an uneven floor can stand on any three of its wheels, so the design load is the worst caster over every three-wheel stance that holds the centre of mass (wheels taken at their kingpins); the even share is shown for comparison only. Use the maker\'s rating, and allow for rolling over cable covers, ramps and lips.',
-  'A raked stage uses up lean before anyone pushes (1:24 is 2.39°, 1:12 is 4.76°), and stopping or starting a moving unit leans it too: a stop at a fraction a of g acts like a lean of atan(a).',
+  'Caster loads: on an uneven floor a rigid plate can stand on any three of its wheels, so the load per caster is the worst caster over every three-wheel stance holding the centre of mass (wheels at their kingpins); the even share is for comparison. Use the maker\'s rating; allow for cable covers, ramps and lips.',
+  'A raked stage uses up lean before anyone pushes (1:24 is 2.39°, 1:12 is 4.76°); stopping or starting a moving unit at a fraction a of g acts like a lean of atan(a).',
   'Steel counterweight is heavy: lift with care, lock every block in place, and take the blocks out before the unit is tipped, carried or stored.',
 ]
 

@@ -126,9 +126,12 @@ describe('stability in the editor', () => {
       await row.waitFor()
       expect(await row.getAttribute('data-severity')).toBe('error')
       expect(await row.textContent()).toContain('rating of 50 kg')
+      // A viewport tall enough for the whole panel, so the shot needs no scrolling under the page's sticky bars.
+      await page.setViewportSize({ width, height: 3200 })
       await page.getByTestId('stability-panel').screenshot({ path: `${shots}/stability-panel-${width}.png` })
       await page.getByTestId('findings').screenshot({ path: `${shots}/stability-checks-${width}.png` })
       if (width === 1440) {
+        await page.setViewportSize({ width, height: 1000 })
         await page.getByTestId('save').click()
         await expect.poll(async () => (await page.getByRole('alert').filter({ hasText: 'save anyway' }).textContent()) ?? '').toMatch(/1 error remains/)
         await page.getByTestId('save').click()
