@@ -64,7 +64,7 @@ const lobesSchema = z.object({
 const casterSchema = z.object({
   /** Scenery casters run 2-5 in wheels (from memory); 1-1/2 to 8 in accepted. */
   wheelDiameter: length(inch(1.5), inch(8), inch(2)),
-  /** Horizontal distance from the kingpin to the axle, mm; a fraction of the wheel diameter. */
+  /** Horizontal distance from the kingpin to the axle, mm; a fraction of the wheel diameter. Default 3/4 in for the 2 in wheel (from memory). */
   swivelLead: length(0, inch(6), inch(0.75)),
   /** Floor to the top of the caster's top plate (the mounting face), mm. A 2 in caster is about 2-5/8 in tall (from memory). */
   overallHeight: length(inch(1.5), inch(12), inch(2.625)),
@@ -72,9 +72,9 @@ const casterSchema = z.object({
   treadWidth: length(inch(0.25), inch(4), inch(0.75)),
   /** Room kept between the swivelling wheel and the pocket's wall, mm. Default 1/4 in (from memory). */
   swivelClearance: length(0, inch(2), inch(0.25)),
-  /** Top plate side running along the radial line, mm. */
+  /** Top plate side running along the radial line, mm. Default 2-1/4 in (from memory, with the 3 in length and the 2-3/8 x 1-1/2 in bolt pattern below; checked against each other in tests/unit/stability). */
   topPlateWidth: length(inch(1), inch(8), inch(2.25)),
-  /** Top plate side running square to the radial line, mm. */
+  /** Top plate side running square to the radial line, mm. Default 3 in (from memory). */
   topPlateLength: length(inch(1), inch(10), inch(3)),
   /** Bolt centres along the top plate's length (square to the radial line), mm. */
   boltSpacingX: length(10, inch(9.5), inch(2.375)),

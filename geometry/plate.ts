@@ -11,6 +11,8 @@ import { sampleOutline, smoothPath } from './outline/sample'
 import { floorStack } from './checks/floor'
 import { plateFindings } from './checks/findings'
 import { plateMetrics } from './metrics/metrics'
+// Straight to the file, not the folder's index: geometry/stability never imports the plate back.
+import { unitPlateFindings } from './stability/analyse'
 
 const DEG = Math.PI / 180
 /** Extra room (mm) kept round every clearance circle so the polygon's chords (up to 0.1 mm inside the curve) never eat into the minimum wood. */
@@ -91,7 +93,7 @@ export function buildPlate(params: PlateParams, options: BuildOptions = {}): Pla
   const a = params.rotation * DEG
   const reach = params.tubeDiameter / 2
   const axisEnd: Point = [reach * Math.cos(a), reach * Math.sin(a)]
-  return {
+  const plate: Plate = {
     params,
     outline,
     outlinePath,
@@ -106,4 +108,7 @@ export function buildPlate(params: PlateParams, options: BuildOptions = {}): Pla
     findings,
     metrics,
   }
+  // The unit's errors (it tips, a caster is overloaded, counterweight that cannot go in or fit) are the plate's errors too.
+  if (params.unit) findings.push(...unitPlateFindings(plate, params.unit))
+  return plate
 }

@@ -11,6 +11,7 @@ import { formatLength, MM_PER_INCH } from '../units'
 import { placeAccess, placeCasters } from '../features/placement'
 import { HOLE_SAW_INCHES } from '../features/holes'
 import { buildPlate } from '../plate'
+import { formatMass } from '../stability/format'
 
 export interface MessageUnits {
   units: 'in' | 'mm'
@@ -56,6 +57,10 @@ export const FIELD_LABELS: Record<string, string> = {
   indexHoleDiameter: 'Index holes',
   'cutting.bitDiameter': 'Router bit',
   minWood: 'Minimum wood',
+  'access.enabled': 'Access openings',
+  'unit.casterRating': 'Caster rating, each',
+  'unit.counterweight.count': 'Blocks',
+  'unit.load.height': 'Centre of mass height',
 }
 
 const KIND_ONE: Record<HoleKind, string> = { pocket: 'pocket', access: 'access opening', centre: 'centre hole', index: 'index hole' }
@@ -220,6 +225,18 @@ function groupText(g: Group, u: MessageUnits): string {
       return `${n > 1 ? `${n} roots are` : 'A root is'} as narrow as ${L(min(g, 'width'))} halfway out, less than the ${L(first(g, 'least'))} least root width: plywood that narrow snaps across the grain.`
     case 'larger-than-sheet':
       return `The plate does not fit a ${L(first(g, 'sheetWidth'))} x ${L(first(g, 'sheetLength'))} sheet in any orientation, keeping ${L(first(g, 'edgeMargin'))} clear at the sheet's edges: each layer must be pieced.`
+    case 'unit-tips':
+      return `The centre of mass stands ${L(-first(g, 'supportDistance'))} outside the wheels' support (every wheel swivelled the worst way): the unit leaves its wheels on its own. Move the casters out or add counterweight.`
+    case 'caster-overload': {
+      const M = (kg: number) => formatMass(kg, u.units)
+      return `The worst-loaded caster may carry ${M(first(g, 'loadPerCaster'))} when the plate stands on three of its wheels (an uneven floor; the even share is ${M(first(g, 'evenShare'))}), more than its rating of ${M(first(g, 'rating'))}. Use casters rated higher, or more of them.`
+    }
+    case 'counterweight-passage':
+      if (Number.isFinite(first(g, 'passage')) && first(g, 'opening') > 0) return `A counterweight block needs an opening wider than ${L(first(g, 'passage'))} (the diagonal of its smallest end) to go in and come out again; the access openings are ${L(first(g, 'opening'))}.`
+      return g.findings[0]!.f.message
+    case 'counterweight-fit':
+      if (Number.isFinite(first(g, 'capacity')) && Number.isFinite(first(g, 'count'))) return `Only ${first(g, 'capacity')} counterweight blocks fit inside the tube, clear of the pans and openings; ${first(g, 'count')} are loaded.`
+      return g.findings[0]!.f.message
     default:
       // A code this list does not know yet: the geometry's own sentence, rather than nothing.
       return g.findings[0]!.f.message

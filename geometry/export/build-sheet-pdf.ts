@@ -10,7 +10,7 @@ import { MM_PER_INCH, formatInches, formatMillimetres } from '../units'
 import { analyseUnit, type UnitAnalysis } from '../stability/analyse'
 import { COUNTERWEIGHT_MATERIALS } from '../stability/unit-params'
 import { formatAngle, formatForce, formatMass } from '../stability/format'
-import { STABILITY_CAUTIONS } from '../stability/cautions'
+import { motionNotes, STABILITY_CAUTIONS, tippingSequence } from '../stability/cautions'
 import { resolveFontBytes, unpackWoff, type FontBytes } from './fonts'
 import { COLOURS, Ops, type Rgb } from './pdf-ops'
 import { PT_PER_MM, type ExportUnits } from './units'
@@ -296,7 +296,7 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   const rimCircle = firstFastener && fastenedPocket ? 2 * Math.hypot(firstFastener.x - fastenedPocket.x, firstFastener.y - fastenedPocket.y) : 0
   const rows = [
     ['item', 'count', 'size'],
-    ['Swivel casters', `${n}`, `${L(p.caster.wheelDiameter)} wheel, ${L(p.caster.overallHeight)} tall, swivel lead ${L(p.caster.swivelLead)}, rated ${M(a.casterRating)} each`],
+    ['Swivel casters', `${n}`, `${L(p.caster.wheelDiameter)} wheel, ${L(p.caster.overallHeight)} tall, swivel lead ${L(p.caster.swivelLead)}, rated ${a.casterRating !== null ? `${M(a.casterRating)} each (maker's figure)` : `________ ${u === 'in' ? 'lb' : 'kg'} each (fill in the maker's rating)`}`],
     ['Pans', `${n}`, `rim to fit a ${L(p.pocketDiameter + 2 * p.rabbetWidth)} rabbet, ${L(p.panDepth)} deep, over a ${L(p.pocketDiameter)} pocket`],
     ['Pan fasteners', `${plate.fasteners.length}`, `${p.fasteners.count} per pan, ${L(p.fasteners.diameter)} holes drilled through the rabbet floor${rimCircle ? ` on a ${L(rimCircle)} circle` : ''} (${L(p.rabbetDepth)} below the top face)`],
     ['Caster bolts, nuts, washers', `${n * bolts}`, `${L(p.caster.boltDiameter)}, on ${L(p.caster.boltSpacingX)} × ${L(p.caster.boltSpacingY)} centres`],
@@ -318,17 +318,19 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
 
   page.heading('Shop math (estimates)')
   const need = (k: number | null) => (k === null ? 'more than fit' : `${k} block${k === 1 ? '' : 's'}`)
+  const motion = motionNotes(s)
   page.table([
     ['figure', 'value', 'against'],
     ['Total weight', `${M(s.totalWeight)}`, `plate ${M(s.parts.plate.kg)}, load ${M(s.parts.load.kg)}, counterweight ${M(s.parts.counterweight.kg)}, casters and pans ${M(s.parts.hardware.kg)}`],
     ['Centre of mass height', L(s.centreOfMassHeight), 'above the floor'],
-    ['Tipping angle (worst direction)', formatAngle(s.tippingAngle), `target ${formatAngle(a.unit.targetAngle)}: ${a.anglePasses ? 'reached' : `not reached, needs ${need(a.blocksForAngle)}`}`],
-    ['Support distance', L(s.supportDistance), `wheels swivelled the worst way (lead ${L(s.swivelLead)})`],
-    ['Push that tips it', `${F(s.tippingPush)} at ${L(s.pushHeight)}`, `check push ${F(a.checkPush)} (analogy): ${a.pushPasses ? 'stands it' : `does not, needs ${need(a.blocksForPush)}`}`],
-    ['Load per caster', M(s.loadPerCaster), `rating ${M(a.casterRating)}; shared by ${s.loadSharedBy} of ${n}`],
-    ['Root reaches the floor at', s.rootTouchAngle >= 90 ? 'never' : formatAngle(s.rootTouchAngle), 'lean about the nearest wheels'],
+    ['Leaves its wheels at (worst direction)', formatAngle(s.tippingAngle), `target ${formatAngle(a.unit.targetAngle)}: ${a.anglePasses ? 'reached' : `not reached; caster offset about ${a.remedy?.casterOffset != null ? L(a.remedy.casterOffset) : '-'} or ${need(a.blocksForAngle)}`}`],
+    ['Overturns at', formatAngle(s.overturnAngle), `about the outline's outer edge (${L(s.overturnDistance)} from the centre of mass); a root touches at ${s.rootTouchAngle >= 90 ? 'no lean' : formatAngle(s.rootTouchAngle)}`],
+    ['Raked stage, stops', motion.rakes.map((r) => `${r.label} ${formatAngle(r.angle)}`).join(', '), `a stop or start over ${motion.liftStop.g.toFixed(3)} g lifts its wheels; ${motion.rakes.filter((r) => r.left <= 0).map((r) => `off its wheels on ${r.label}`).join(', ') || 'on its wheels on both rakes'}`],
+    ['Push that lifts its wheels', `${F(s.tippingPush)} at ${L(s.pushHeight)}`, `check push ${F(a.checkPush)} (analogy): ${a.pushPasses ? 'stands it' : `does not, needs ${need(a.blocksForPush)}`}`],
+    ['Load per caster (worst)', M(s.loadPerCaster), `any three of ${n} wheels; even share ${M(s.evenShare)}; rating ${a.casterRating !== null ? M(a.casterRating) : '________ (fill in)'}`],
     ['Rolling push', `${F(s.rollingPush.low)} to ${F(s.rollingPush.high)}`, '1-3 % of the weight on a smooth floor (from memory)'],
   ], [0, 150, 260])
+  page.para(tippingSequence(s, formatAngle), 7.5)
   for (const f of a.findings) page.para(`${f.severity === 'error' ? 'Problem' : 'Check'}: ${f.message}`, 8.5, MARGIN, page.width - 2 * MARGIN, COLOURS.warn)
 
   page.heading('Cautions')

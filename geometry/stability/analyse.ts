@@ -1,8 +1,10 @@
 // The whole shop-math picture of one revision: the saved unit turned into
 // masses and heights, the statics, the counterweight a target needs, and the
 // findings (blocks that cannot go in or out, casters over their rating).
-// Kept apart from buildPlate's findings so the plate stays cheap to rebuild;
-// the editor and the build sheet call analyseUnit themselves.
+// buildPlate folds the errors among these into the plate's own findings
+// (`unitPlateFindings`, without the search for blocks needed, so a rebuild
+// stays cheap); the editor and the build sheet call analyseUnit for the
+// figures.
 
 import type { Finding, Plate } from '../types'
 import { blockMass, blockPassage, layoutBlocks, materialDensity, type BlockLayout } from './counterweight'
@@ -51,6 +53,10 @@ export interface UnitAnalysis {
     passes: boolean
   }
   layout: BlockLayout
+  /** The unit's own height above the floor, mm: the tube's top when built up, else estimated as a uniform column (twice the load's centre height above the plate). */
+  unitHeight: number
+  /** The push height asked for, mm; the one used (`stability.pushHeight`) is never above the unit's height. */
+  pushHeightAsked: number
   /** Push to check at the push height, N (by the analogy), and whether the unit stands it. */
   checkPush: number
   pushPasses: boolean
@@ -58,8 +64,21 @@ export interface UnitAnalysis {
   /** Blocks in all (not extra) that reach the target angle / stand the check push; null when no number of blocks that fit does. */
   blocksForAngle: number | null
   blocksForPush: number | null
-  casterRating: number
+  /**
+   * What would reach the target lean when it is missed: the caster offset,
+   * mm, R = (h tan(theta) + e) / cos(pi / n) for n casters evenly on a circle
+   * round the centre of mass (null with fewer than three casters), and the
+   * blocks in all (`blocksForAngle`).
+   */
+  remedy: { casterOffset: number | null; blocks: number | null } | null
+  /** The maker's rating of one caster, kg; null until typed. */
+  casterRating: number | null
   findings: StabilityFinding[]
+}
+
+export interface AnalyseOptions {
+  /** Search for the blocks needed for the target lean and the check push (lays out up to 500 blocks). Default true; buildPlate leaves it out. */
+  search?: boolean
 }
 
 /** The load as one mass at one height: given, or built up from the tube, its cladding and props. */
@@ -76,27 +95,46 @@ export function resolveLoad(plate: Plate, unit: UnitParams): LoadBreakdown {
   return { weight, height, tube }
 }
 
+const NO_BLOCKS: BlockLayout = { perLayer: 0, capacity: 0, spots: [], leftOver: 0, heightAboveTop: 0, x: 0, y: 0 }
+
 function checkPushFor(unit: UnitParams, weightNewtons: number): number {
   return Math.min(unit.pushFraction * weightNewtons, unit.pushMax)
 }
 
-export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Formatters = METRIC_FORMAT): UnitAnalysis {
+/** The unit's height above the floor, mm: the tube's top (or props above it) when built up; in given mode a uniform column's, twice the load's centre height above the plate's top. */
+export function unitHeightOf(plate: Plate, unit: UnitParams, load: LoadBreakdown): number {
+  const top = plate.metrics.floorGap + plate.metrics.thickness
+  if (unit.load.mode === 'built') return Math.max(top + unit.load.tubeLength, unit.load.props > 0 ? unit.load.propsHeight : 0)
+  return top + 2 * Math.max(0, load.height - top)
+}
+
+/** Caster offset (kingpin circle radius, mm) at which n casters evenly round the centre of mass stand a lean of `angle` degrees: R = (h tan(angle) + e) / cos(pi / n). */
+export function casterOffsetFor(angle: number, height: number, lead: number, n: number): number | null {
+  if (n < 3 || !(angle < 90)) return null
+  return (height * Math.tan((angle * Math.PI) / 180) + lead) / Math.cos(Math.PI / n)
+}
+
+export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Formatters = METRIC_FORMAT, options: AnalyseOptions = {}): UnitAnalysis {
   const unit = unitGiven ?? (plate.params as { unit?: UnitParams }).unit ?? unitSchema.parse({})
   const cw = unit.counterweight
   const density = materialDensity(cw.material)
   const mass = blockMass(cw.block, density)
   const top = plate.metrics.floorGap + plate.metrics.thickness
-  const layout = layoutBlocks(plate, cw.block, cw.count, cw.maxLayers)
+  // Without blocks and without the search, nothing reads the layout: skip it (buildPlate calls this on every rebuild).
+  const layout = cw.count > 0 || options.search !== false ? layoutBlocks(plate, cw.block, cw.count, cw.maxLayers) : NO_BLOCKS
   const placed = layout.spots.length
   const load = resolveLoad(plate, unit)
   const casterCount = plate.holes.filter((h) => h.kind === 'pocket').length
+  // A push is never checked above the unit itself.
+  const unitHeight = unitHeightOf(plate, unit, load)
+  const pushHeight = Math.min(unit.pushHeight, unitHeight)
   const input: UnitInput = {
     loadWeight: load.weight,
     loadHeight: load.height,
     counterweight: cw.count * mass,
     counterweightHeight: top + layout.heightAboveTop,
     counterweightAt: { x: layout.x, y: layout.y },
-    pushHeight: unit.pushHeight,
+    pushHeight,
     hardwareWeight: unit.hardwarePerCaster * casterCount,
   }
   // Blocks with no place are still counted as weight, on top of the stacks: what the shop said it loads.
@@ -111,7 +149,8 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
   const passage = blockPassage(cw.block)
 
   // Blocks needed: add them one by one where the layout puts them and watch the figures.
-  const full = layoutBlocks(plate, cw.block, 500, cw.maxLayers)
+  const search = options.search !== false
+  const full = search ? layoutBlocks(plate, cw.block, 500, cw.maxLayers) : { spots: [] }
   const support = supportPolygon(stability.kingpins, stability.swivelLead)
   const base = stability.parts
   const baseMass = base.plate.kg + base.load.kg + base.hardware.kg
@@ -124,7 +163,7 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
   let mx = 0
   let my = 0
   const thick = Math.min(cw.block.length, cw.block.width, cw.block.thickness)
-  for (let k = 0; k <= full.spots.length; k++) {
+  for (let k = 0; search && k <= full.spots.length; k++) {
     if (k > 0) {
       const s = full.spots[k - 1]!
       mz += mass * (top + (s.layer + 0.5) * thick)
@@ -135,7 +174,7 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     const t = tipping(support, (baseMx + mx) / total, (baseMy + my) / total, (baseMz + mz) / total)
     const w = total * STANDARD_GRAVITY
     if (blocksForAngle === null && t.angle >= unit.targetAngle) blocksForAngle = k
-    if (blocksForPush === null && (w * t.distance) / unit.pushHeight >= checkPushFor(unit, w)) blocksForPush = k
+    if (blocksForPush === null && (w * t.distance) / pushHeight >= checkPushFor(unit, w)) blocksForPush = k
     if (blocksForAngle !== null && blocksForPush !== null) break
   }
 
@@ -145,8 +184,8 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     findings.push({
       code: 'unit-tips',
       severity: 'error',
-      message: `The centre of mass stands ${L(-stability.supportDistance)} outside the wheels' support with every wheel swivelled the worst way: the unit tips on its own.`,
-      field: 'unit.load.height',
+      message: `The centre of mass stands ${L(-stability.supportDistance)} outside the wheels' support with every wheel swivelled the worst way: the unit leaves its wheels on its own${stability.overturnDistance > 0 ? ' and rests on a root' : ' and overturns'}. Move the casters out (caster offset) or add counterweight.`,
+      field: 'casterOffset',
       values: { supportDistance: stability.supportDistance },
     })
   }
@@ -170,23 +209,30 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
       values: { capacity: layout.capacity, perLayer: layout.perLayer, count: cw.count },
     })
   }
-  if (stability.loadPerCaster > unit.casterRating) {
+  const rating = unit.casterRating ?? null
+  if (rating !== null && stability.loadPerCaster > rating) {
     findings.push({
       code: 'caster-overload',
       severity: 'error',
-      message: `Each caster may carry ${format.mass(stability.loadPerCaster)} (the weight shared by ${stability.loadSharedBy} of ${casterCount} on an uneven floor), more than its rating of ${format.mass(unit.casterRating)}.`,
+      message: `The worst-loaded caster may carry ${format.mass(stability.loadPerCaster)} when the plate stands on three wheels (an uneven floor), more than its rating of ${format.mass(rating)}. Use casters rated higher, or more of them.`,
       field: 'unit.casterRating',
-      values: { loadPerCaster: stability.loadPerCaster, rating: unit.casterRating },
+      values: { loadPerCaster: stability.loadPerCaster, rating, evenShare: stability.evenShare },
     })
   }
   const anglePasses = stability.tippingAngle >= unit.targetAngle
+  const offsetNeeded = anglePasses ? null : casterOffsetFor(unit.targetAngle, stability.centreOfMassHeight, stability.swivelLead, casterCount)
+  const remedy = anglePasses ? null : { casterOffset: offsetNeeded, blocks: blocksForAngle }
   if (stability.supportDistance > 0 && !anglePasses) {
+    const ways = [
+      offsetNeeded !== null ? `a caster offset of about ${L(offsetNeeded)} (now ${L(plate.params.casterOffset)})` : null,
+      search ? (blocksForAngle !== null ? `${blocksForAngle} counterweight block${blocksForAngle === 1 ? '' : 's'}` : null) : 'counterweight (Blocks)',
+    ].filter((w): w is string => !!w)
     findings.push({
       code: 'tipping-angle',
       severity: 'warning',
-      message: `It tips at a lean of ${stability.tippingAngle.toFixed(1)}°, less than the ${unit.targetAngle}° aimed for.`,
-      field: 'unit.targetAngle',
-      values: { tippingAngle: stability.tippingAngle, targetAngle: unit.targetAngle },
+      message: `It leaves its wheels at a lean of ${stability.tippingAngle.toFixed(1)}°, less than the ${unit.targetAngle}° aimed for.${ways.length ? ` To reach it: ${ways.join(', or ')}.` : ''}`,
+      field: offsetNeeded !== null ? 'casterOffset' : 'unit.counterweight.count',
+      values: { tippingAngle: stability.tippingAngle, targetAngle: unit.targetAngle, ...(offsetNeeded !== null ? { casterOffset: offsetNeeded } : {}) },
     })
   }
   const pushPasses = stability.tippingPush >= checkPush
@@ -194,8 +240,8 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     findings.push({
       code: 'tipping-push',
       severity: 'warning',
-      message: `A push of ${format.force(stability.tippingPush)} at ${L(stability.pushHeight)} tips it, less than the ${format.force(checkPush)} checked (an analogy, not a scenery rule).`,
-      field: 'unit.pushHeight',
+      message: `A push of ${format.force(stability.tippingPush)} at ${L(stability.pushHeight)} lifts its wheels, less than the ${format.force(checkPush)} checked (an analogy, not a scenery rule).${search && blocksForPush !== null ? ` ${blocksForPush} counterweight block${blocksForPush === 1 ? '' : 's'} would stand it.` : ' Move the casters out or add counterweight.'}`,
+      field: 'unit.counterweight.count',
       values: { tippingPush: stability.tippingPush, checkPush },
     })
   }
@@ -207,14 +253,26 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     stability,
     block: { mass, density, densitySource: COUNTERWEIGHT_MATERIALS[cw.material].source, passage, opening, passes: openings.length > 0 && passage < opening },
     layout,
+    unitHeight,
+    pushHeightAsked: unit.pushHeight,
     checkPush,
     pushPasses,
     anglePasses,
     blocksForAngle,
     blocksForPush,
-    casterRating: unit.casterRating,
+    remedy,
+    casterRating: rating,
     findings,
   }
+}
+
+/**
+ * The unit's errors as plate findings (buildPlate adds them): every
+ * stability, caster and counterweight error, worked out without the search
+ * for blocks needed. Warnings stay with the figures.
+ */
+export function unitPlateFindings(plate: Plate, unit?: UnitParams): StabilityFinding[] {
+  return analyseUnit(plate, unit, METRIC_FORMAT, { search: false }).findings.filter((f) => f.severity === 'error')
 }
 
 /** The findings alone: what a caller folding them into a plate's list needs. */

@@ -4,7 +4,7 @@
 // shop's qualified person, the venue's rules and local codes decide.
 
 import type { Plate, Point } from '../types'
-import { floorTouch, supportPolygon, tipping, type SupportEdge } from './support'
+import { floorTouch, overturn, stanceLoads, supportPolygon, tipping, type SupportEdge } from './support'
 import { PUSH_ANALOGY } from './unit-params'
 
 /** Standard gravity, m/s2 (CGPM 1901): W = m g. */
@@ -37,17 +37,35 @@ export interface WeightPart {
 }
 
 export interface UnitStability {
-  /** Degrees the unit may lean in the worst direction before it tips; negative when it already stands outside its support. */
+  /**
+   * Degrees the unit may lean in the worst direction before it leaves its
+   * wheels (the centre of mass passes the wheels' support, one side's wheels
+   * lift); negative when it already stands outside its support. Where a root
+   * reaches the floor it rocks onto the root then, and overturns only at
+   * `overturnAngle`.
+   */
   tippingAngle: number
   /** Horizontal distance from the centre of mass to the nearest side of the support polygon, mm. */
   supportDistance: number
   /** Horizontal push at `pushHeight` that tips it over a blocked wheel, N: W d / H. */
   tippingPush: number
   pushHeight: number
-  /** kg per caster, shared by one caster fewer than the plate has when it has four or more (an uneven floor). */
+  /**
+   * kg on the worst-loaded caster when the rigid plate stands on any three of
+   * its wheels whose triangle holds the centre of mass (an uneven floor; the
+   * barycentric shares of the weight, wheels at their kingpins). Three
+   * casters: their exact loads. The whole weight when no three hold it.
+   */
   loadPerCaster: number
-  /** How many casters share the load in that figure. */
-  loadSharedBy: number
+  /** The even share, kg: the total over the casters (a level floor and a perfectly flat plate). */
+  evenShare: number
+  /** Caster (0-based, in the plate's pocket order) that carries `loadPerCaster`, and the stance of three it stands in; -1 and [] when none holds the centre of mass. */
+  worstCaster: number
+  worstStance: number[]
+  /** Degrees it may lean before it overturns about the outline's convex hull (a root on the floor), and the horizontal distance to that hull's nearest side, mm. */
+  overturnAngle: number
+  overturnDistance: number
+  overturnLine: [Point, Point] | null
   /** Combined centre of mass above the floor, mm. */
   centreOfMassHeight: number
   /** Combined centre of mass in plan, mm. */
@@ -131,18 +149,24 @@ export function unitStability(plate: Plate, unit: UnitInput): UnitStability {
   const support = supportPolygon(kingpins, lead)
   const tip = tipping(support, x, y, height)
   const touch = floorTouch(support, plate.outline, m.floorGap)
+  const over = overturn(plate.outline, x, y, height)
+  const stance = stanceLoads(kingpins, x, y, total)
 
   const pushHeight = unit.pushHeight ?? PUSH_ANALOGY.height
   const weightNewtons = total * STANDARD_GRAVITY
   const n = kingpins.length
-  const sharedBy = n >= 4 ? n - 1 : Math.max(1, n)
   return {
     tippingAngle: tip.angle,
     supportDistance: tip.distance,
     tippingPush: pushHeight > 0 ? (weightNewtons * (tip.distance / 1000)) / (pushHeight / 1000) : Infinity,
     pushHeight,
-    loadPerCaster: total / sharedBy,
-    loadSharedBy: sharedBy,
+    loadPerCaster: stance.worst,
+    evenShare: total / Math.max(1, n),
+    worstCaster: stance.caster,
+    worstStance: stance.stance,
+    overturnAngle: over.angle,
+    overturnDistance: over.distance,
+    overturnLine: over.line,
     centreOfMassHeight: height,
     centreOfMass: { x, y },
     totalWeight: total,

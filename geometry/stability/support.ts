@@ -127,3 +127,95 @@ export function floorTouch(support: Support, outline: readonly Point[], gap: num
   }
   return { angle, edge, reach }
 }
+
+export interface StanceLoads {
+  /** kg on the worst-loaded caster over every three-caster stance whose triangle holds the centre of mass. */
+  worst: number
+  /** Index (into the kingpins as given) of that caster; -1 when no stance holds the centre of mass. */
+  caster: number
+  /** The three casters of that stance, as given; empty when none holds it. */
+  stance: number[]
+  /** Whether some stance holds the centre of mass at all. */
+  held: boolean
+}
+
+/**
+ * The worst single caster load when a rigid plate stands on any three of its
+ * wheels (an uneven floor): for each three kingpins whose triangle holds the
+ * centre of mass (x, y), the weight splits by the barycentric coordinates of
+ * the centre of mass (three supports are statically determinate: the moments
+ * about two axes and the sum of the forces fix them). The largest share over
+ * every such stance is the design load. Three casters: their exact loads.
+ * Fewer than three, or a centre of mass no triangle holds: the whole weight.
+ * `mass` in kg; kingpins in mm (the wheels taken at their kingpins).
+ */
+export function stanceLoads(kingpins: readonly Point[], x: number, y: number, mass: number): StanceLoads {
+  const n = kingpins.length
+  let worst = -1
+  let caster = -1
+  let stance: number[] = []
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      for (let k = j + 1; k < n; k++) {
+        const a = kingpins[i]!
+        const b = kingpins[j]!
+        const c = kingpins[k]!
+        const area2 = (b[0] - a[0]) * (c[1] - a[1]) - (c[0] - a[0]) * (b[1] - a[1])
+        const span = Math.max(Math.hypot(b[0] - a[0], b[1] - a[1]), Math.hypot(c[0] - a[0], c[1] - a[1]), 1e-9)
+        // A stance of three casters in a line carries nothing off that line: not a stance.
+        if (Math.abs(area2) < 1e-9 * span * span) continue
+        const la = ((b[0] - x) * (c[1] - y) - (c[0] - x) * (b[1] - y)) / area2
+        const lb = ((c[0] - x) * (a[1] - y) - (a[0] - x) * (c[1] - y)) / area2
+        const lc = 1 - la - lb
+        // On a side counts as held (a square with the centre of mass on its diagonal: W/2 on two casters).
+        const eps = 1e-9
+        if (la < -eps || lb < -eps || lc < -eps) continue
+        for (const [share, index] of [[la, i], [lb, j], [lc, k]] as const) {
+          if (share > worst) {
+            worst = share
+            caster = index
+            stance = [i, j, k]
+          }
+        }
+      }
+    }
+  }
+  if (worst < 0) return { worst: mass, caster: -1, stance: [], held: false }
+  return { worst: worst * mass, caster, stance, held: true }
+}
+
+export interface Overturn {
+  /** Horizontal distance from the centre of mass to the nearest side of the outline's convex hull, mm. */
+  distance: number
+  /** atan(distance / height), degrees. */
+  angle: number
+  /** That side, mm. */
+  line: [Point, Point] | null
+}
+
+/**
+ * Overturning for real: once a root is down, the unit stands on the convex
+ * hull of what touches the floor, the outline's hull (the wheels stand inside
+ * it). It overturns when the centre of mass passes that hull's nearest side:
+ * atan(d / h), h the centre of mass above the floor.
+ */
+export function overturn(outline: readonly Point[], x: number, y: number, height: number): Overturn {
+  const hull = convexHull(outline)
+  const n = hull.length
+  if (n < 3) return { distance: 0, angle: 0, line: null }
+  let distance = Infinity
+  let line: [Point, Point] | null = null
+  for (let i = 0; i < n; i++) {
+    const a = hull[i]!
+    const b = hull[(i + 1) % n]!
+    const len = Math.hypot(b[0] - a[0], b[1] - a[1])
+    if (len < 1e-12) continue
+    // Counter-clockwise hull: inside is to the left, so this is positive inside.
+    const d = ((b[0] - a[0]) * (y - a[1]) - (b[1] - a[1]) * (x - a[0])) / len
+    if (d < distance) {
+      distance = d
+      line = [a, b]
+    }
+  }
+  return { distance, angle: Math.atan2(distance, Math.max(height, 1e-9)) * DEG, line }
+}

@@ -3,8 +3,8 @@
 // cladding and props), the counterweight blocks, the caster rating and the
 // push to check. Kilograms and millimetres, like the rest of the library.
 //
-// Every field has a default, so a revision saved before this existed still
-// parses. Values marked "from memory" are common shop practice, not a
+// Every field but the caster rating has a default, so a revision saved
+// before this existed still parses. Values marked "from memory" are common shop practice, not a
 // published table; the push defaults are an analogy (see PUSH_ANALOGY).
 
 import { z } from 'zod'
@@ -81,9 +81,13 @@ const counterweightSchema = z.object({
 export const unitSchema = z.object({
   load: loadSchema.prefault({}),
   counterweight: counterweightSchema.prefault({}),
-  /** Load rating of one caster, kg: a 3 in scenery caster is often rated about 250 lb (from memory); use the maker's figure. */
-  casterRating: kg(5000, Math.round(250 * KG_PER_LB * 1000) / 1000),
-  /** Casters, pans and their bolts, kg per caster: about 2 kg for a 3 in caster in a steel pan (from memory). */
+  /**
+   * Load rating of one caster, kg: only the maker's figure, typed in. No
+   * default: a rating made up here would pass or fail casters on a number
+   * nobody checked. Absent (or null) until the shop enters it.
+   */
+  casterRating: z.number().finite().min(0).max(5000).nullable().optional(),
+  /** Casters, pans and their bolts, kg per caster: about 2 kg for a small caster in a steel pan (from memory, an estimate). */
   hardwarePerCaster: kg(50, 2),
   /** Height of the push to check, mm (default from the analogy: 1.5 m). */
   pushHeight: mm(10, 10000, PUSH_ANALOGY.height),

@@ -1,12 +1,15 @@
 // How long unitStability takes, against the goal of following a drag: the
 // editor recomputes the figures on every pointer move, beside buildPlate.
-// Goal on a 2-core machine: median under 0.2 ms. analyseUnit (the figures,
+// Goal on a 2-core machine: median under 0.2 ms (it now includes the worst
+// caster over every three-wheel stance and the overturn about the outline's
+// hull). unitPlateFindings (the unit's errors buildPlate adds on every
+// rebuild, no search for blocks) has the same goal; analyseUnit (the figures,
 // the blocks needed and the findings) is timed too, for information.
 // Run alone: npx tsx scripts/bench/stability.ts
 
 import { buildPlate } from '../../geometry/plate'
 import { plateParamsSchema } from '../../geometry/params'
-import { analyseUnit, unitStability } from '../../geometry/stability'
+import { analyseUnit, unitPlateFindings, unitStability } from '../../geometry/stability'
 
 const GOAL_MS = 0.2
 const WARMUP = 300
@@ -35,6 +38,12 @@ for (const c of cases) {
     times.push(performance.now() - t0)
   }
   const m = median(times)
+  const join: number[] = []
+  for (let i = 0; i < 500; i++) {
+    const t0 = performance.now()
+    unitPlateFindings(plate, c.params.unit)
+    join.push(performance.now() - t0)
+  }
   const full: number[] = []
   for (let i = 0; i < 200; i++) {
     const t0 = performance.now()
@@ -43,5 +52,8 @@ for (const c of cases) {
   }
   console.log(`${c.name}: ${plate.outline.length} outline points`)
   console.log(`  unitStability median ${m.toFixed(4)} ms (goal ${GOAL_MS} ms, ratio ${(m / GOAL_MS).toFixed(2)})`)
+  const s = unitStability(plate, unit(0))
+  console.log(`  worst caster ${s.loadPerCaster.toFixed(1)} kg over any three of ${s.kingpins.length} wheels (even share ${s.evenShare.toFixed(1)} kg)`)
+  console.log(`  unitPlateFindings median ${median(join).toFixed(4)} ms (goal ${GOAL_MS} ms, ratio ${(median(join) / GOAL_MS).toFixed(2)}; inside every buildPlate)`)
   console.log(`  analyseUnit median ${median(full).toFixed(3)} ms (figures, blocks needed, findings)`)
 }

@@ -12,6 +12,10 @@ const shots = 'test-results/e2e'
 let designer = ''
 let builder = ''
 let revisionId = ''
+let unratedId = ''
+/** NIST SP 811 (2008), Appendix B: 1 lb = 0.45359237 kg exactly; 1 lbf = 0.45359237 kg x 9.80665 m/s2. */
+const KG_PER_LB = 0.45359237
+const N_PER_LBF = 4.4482216152605
 
 async function download(path: string, cookie?: string) {
   const headers: Record<string, string> = { 'x-forwarded-for': freshAddress() }
@@ -47,6 +51,17 @@ beforeAll(async () => {
   })
   expect(created.status).toBe(201)
   revisionId = created.body.revision.id
+  // The same stump with no caster rating typed (the rating has no default: CONTRACTS third round).
+  const unrated = await api('/api/designs', {
+    method: 'POST',
+    cookie: designer,
+    body: {
+      name: 'Build sheet unrated stump',
+      params: { tubeDiameter: 700, casterCount: 4, casterOffset: 12 * IN, pocketDiameter: 150, caster: { swivelLead: 1.5 * IN }, lobes: { irregularity: 0 }, unit: { load: { weight: 300, height: 36 * IN } } },
+    },
+  })
+  expect(unrated.status).toBe(201)
+  unratedId = unrated.body.revision.id
 })
 
 describe('GET /api/revisions/:id/build-sheet.pdf', () => {
@@ -69,16 +84,28 @@ describe('GET /api/revisions/:id/build-sheet.pdf', () => {
       expect(page.getHeight()).toBeCloseTo(792, 1)
     }
     const text = pdfText(res.bytes, 'build-sheet-in')
-    for (const words of ['Build sheet', 'Build sheet check stump', 'Revision r1', 'drawn by Priya Okafor', 'Main dimensions', 'Cut list', 'Layer 1 (top)', 'Layer 2 (bottom)', 'Hardware', 'Swivel casters', 'Pan fasteners', 'Counterweight blocks', 'Build steps', 'Laminate', 'square to its radial line', 'Caster orientation', 'tipping line', 'Shop math (estimates)', 'Tipping angle', 'Load per caster', 'Cautions', 'qualified person', 'local codes', 'IEC 62368-1']) {
+    for (const words of ['Build sheet', 'Build sheet check stump', 'Revision r1', 'drawn by Priya Okafor', 'Main dimensions', 'Cut list', 'Layer 1 (top)', 'Layer 2 (bottom)', 'Hardware', 'Swivel casters', 'Pan fasteners', 'Counterweight blocks', 'Build steps', 'Laminate', 'square to its radial line', 'Caster orientation', 'tipping line', 'Shop math (estimates)', 'Leaves its wheels at', 'Overturns at', 'a root touches at', 'Raked stage, stops', 'Load per caster (worst)', 'any three of 4 wheels', 'even share', 'Cautions', 'qualified person', 'local codes', 'IEC 62368-1']) {
       expect(text).toContain(words)
     }
+    // The last caution is on the page: pdftotext drops what runs off the bottom of a page.
+    expect(text).toContain('take the blocks out before the unit is tipped, carried or stored')
     expect(text).toMatch(/Scale 1:\d+ \([\d/-]+ in = 1 ft\)/)
     // 10.98 deg (REFERENCES worked value) to the sheet's one decimal.
-    expect(text).toMatch(/Tipping angle \(worst direction\) 11\.0°/)
+    expect(text).toMatch(/Leaves its wheels at \(worst direction\) 11\.0°/)
     // Steel 2 x 4 x 4 in blocks: about 9.1 lb each (REFERENCES: EN 1991-1-1 Table A.4, computed).
     expect(text).toContain('9.1 lb each')
-    // Over 5000 kg shared by three of four casters (n - 1) against a 500 kg rating: a problem on the sheet.
-    expect(text).toMatch(/Problem: Each caster may carry/)
+    // Four kingpins on a square round the load: the worst caster over any three-wheel stance carries W/2
+    // (REFERENCES "Rolling stability"); the two blocks off centre move it by well under 1 %.
+    const total = Number(/Total weight ([\d.]+) lb/.exec(text)![1])
+    const worst = Number(/Load per caster \(worst\) ([\d.]+) lb/.exec(text)![1])
+    expect(Math.abs(worst / total - 0.5)).toBeLessThan(0.01)
+    // Over a 500 kg rating: a problem on the sheet, and a plate error the revision was saved with, so the
+    // first page's saved-with-errors box names it (beside this stump's own pocket and opening errors).
+    expect(text).toMatch(/Problem: The worst-loaded caster may carry/)
+    const header = text.slice(0, text.indexOf('Scale 1:'))
+    expect(header).toMatch(/SAVED WITH ERRORS \(\d+\)/)
+    expect(header).toMatch(/worst-loaded caster may carry [\d.]+ lb when the plate stands on three of its wheels/)
+    expect(text).toContain('rated 1102.3 lb each (maker\'s figure)')
   })
 
   it('in millimetres: two A4 pages (595.28 x 841.89 pt, ISO 216), sizes in mm and kg', async () => {
@@ -96,6 +123,29 @@ describe('GET /api/revisions/:id/build-sheet.pdf', () => {
     expect(text).toContain('4.1 kg each')
     // pdftoppm renders page 1 for a person to look at.
     execFileSync('/usr/bin/pdftoppm', ['-png', '-r', '60', '-f', '1', '-l', '1', '-singlefile', `${shots}/build-sheet-mm.pdf`, `${shots}/build-sheet-mm-1`])
+  })
+
+  it('US units (NIST SP 811): the inch sheet\'s pounds and pound-force are the millimetre sheet\'s kilograms and newtons', async () => {
+    const inch = pdfText((await download(`/api/revisions/${revisionId}/build-sheet.pdf?units=in`, builder)).bytes, 'build-sheet-us-in')
+    const metric = pdfText((await download(`/api/revisions/${revisionId}/build-sheet.pdf?units=mm`, builder)).bytes, 'build-sheet-us-mm')
+    const lb = Number(/Total weight ([\d.]+) lb/.exec(inch)![1])
+    const kg = Number(/Total weight ([\d.]+) kg/.exec(metric)![1])
+    expect(Math.abs(lb * KG_PER_LB - kg)).toBeLessThan(0.1)
+    const lbf = Number(/Push that lifts its wheels ([\d.]+) lbf/.exec(inch)![1])
+    const newtons = Number(/Push that lifts its wheels ([\d.]+) N/.exec(metric)![1])
+    // Rounded to 0.1 lbf and 1 N; a push in "lbf" without gravity would differ by a factor of 9.8.
+    expect(Math.abs(lbf * N_PER_LBF - newtons)).toBeLessThan(1)
+  })
+
+  it('with no caster rating typed, the sheet leaves a blank to fill in and raises no overload', async () => {
+    const res = await download(`/api/revisions/${unratedId}/build-sheet.pdf?units=in`, builder)
+    expect(res.status).toBe(200)
+    const text = pdfText(res.bytes, 'build-sheet-unrated')
+    expect(text).toContain('________ lb each (fill in the maker\'s rating)')
+    expect(text).toContain('rating ________ (fill in)')
+    expect(text).not.toContain('worst-loaded caster may carry')
+    expect(text).not.toContain('SAVED WITH ERRORS')
+    execFileSync('/usr/bin/pdftoppm', ['-png', '-r', '60', '-f', '2', '-l', '2', '-singlefile', `${shots}/build-sheet-unrated.pdf`, `${shots}/build-sheet-unrated-2`])
   })
 
   it('answers 422 with a field message for unknown units, 401 without a session, 404 for no such revision', async () => {

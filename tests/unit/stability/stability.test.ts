@@ -7,7 +7,12 @@ import { buildPlate } from '../../../geometry/plate'
 import { plateParamsSchema, type PlateParamsInput } from '../../../geometry/params'
 import {
   analyseUnit, blockMass, blockPassage, blockPasses, supportPolygon, tipping, unitSchema, unitStability, floorTouch,
+  stanceLoads, tippingSequence, motionNotes, RAKES, formatForce, formatMass, parseMass, N_PER_LBF,
 } from '../../../geometry/stability'
+import { presetParams } from '../../../geometry/presets'
+import { problemRows } from '../../../geometry/checks/messages'
+import { savedErrors } from '../../../geometry/export/plate-notes'
+import { previewPlate } from '../../../geometry/preview'
 
 const IN = 25.4
 const G = 9.80665 // standard gravity, CGPM 1901
@@ -96,21 +101,261 @@ describe('weight and push (REFERENCES second round: W = m g, CGPM 1901; "Rolling
   })
 })
 
-describe('load per caster by the n - 1 rule (REFERENCES: caster makers\' selection guidance; common practice)', () => {
-  for (const [n, shared] of [[3, 3], [4, 3], [5, 4], [6, 5], [8, 7]] as const) {
-    it(`${n} casters: the weight shared by ${shared}`, () => {
+/**
+ * Worst caster by a moment balance written here (not barycentric areas): for
+ * each three kingpins solve F1 + F2 + F3 = W, sum Fi xi = W x, sum Fi yi = W y
+ * by Cramer's rule, keep the stances with no negative force, take the largest
+ * force. Statics of a rigid body on three supports.
+ */
+function worstByMomentBalance(pins: P[], x: number, y: number, W: number): number {
+  let worst = -1
+  for (let i = 0; i < pins.length; i++) {
+    for (let j = i + 1; j < pins.length; j++) {
+      for (let k = j + 1; k < pins.length; k++) {
+        const [a, b, c] = [pins[i]!, pins[j]!, pins[k]!]
+        const det3 = (m: number[][]) => m[0]![0]! * (m[1]![1]! * m[2]![2]! - m[1]![2]! * m[2]![1]!) - m[0]![1]! * (m[1]![0]! * m[2]![2]! - m[1]![2]! * m[2]![0]!) + m[0]![2]! * (m[1]![0]! * m[2]![1]! - m[1]![1]! * m[2]![0]!)
+        const A = [[1, 1, 1], [a[0], b[0], c[0]], [a[1], b[1], c[1]]]
+        const rhs = [W, W * x, W * y]
+        const D = det3(A)
+        if (Math.abs(D) < 1e-6) continue
+        const F = [0, 1, 2].map((col) => det3(A.map((row, r) => row.map((v, cc) => (cc === col ? rhs[r]! : v)))) / D)
+        if (F.some((f) => f < -1e-6 * W)) continue
+        worst = Math.max(worst, ...F)
+      }
+    }
+  }
+  return worst
+}
+
+describe('load per caster: the worst caster over every three-wheel stance that holds the centre of mass (REFERENCES third round: statics of a rigid body on three supports; any three wheels on an uneven floor is common practice)', () => {
+  it('four casters on a square, centre of mass in the middle: W/2 on two of them (REFERENCES worked value)', () => {
+    const pins: P[] = [[300, 300], [-300, 300], [-300, -300], [300, -300]]
+    const r = stanceLoads(pins, 0, 0, 100)
+    expect(r.worst).toBeCloseTo(50, 9)
+    expect(worstByMomentBalance(pins, 0, 0, 100)).toBeCloseTo(50, 9)
+  })
+
+  it('three casters: the exact loads. Kingpins (0,0), (1000,0), (0,1000), centre of mass at (200,300): 0.5 W, 0.2 W, 0.3 W by moments about the axes (hand)', () => {
+    const pins: P[] = [[0, 0], [1000, 0], [0, 1000]]
+    // Moments about the y axis: F2 * 1000 = W * 200; about the x axis: F3 * 1000 = W * 300; F1 = W - F2 - F3.
+    const r = stanceLoads(pins, 200, 300, 80)
+    expect(r.worst).toBeCloseTo(0.5 * 80, 9)
+    expect(r.caster).toBe(0)
+  })
+
+  it('three casters with the centre of mass outside them: no stance holds it, the whole weight is the figure', () => {
+    const r = stanceLoads([[0, 0], [1000, 0], [0, 1000]], 900, 900, 80)
+    expect(r.held).toBe(false)
+    expect(r.worst).toBe(80)
+  })
+
+  it('off-centre centres of mass on five and seven kingpins agree with the moment balance', () => {
+    for (const n of [5, 7]) {
+      const pins = ring(n, 300, 13)
+      for (const [x, y] of [[0, 0], [40, -25], [-90, 60]] as const) {
+        expect(stanceLoads(pins, x, y, 250).worst).toBeCloseTo(worstByMomentBalance(pins, x, y, 250), 6)
+      }
+    }
+  })
+
+  it('the six-caster banyan preset with 100 kg at 1500 mm: W = 121.8 kg, about 61 kg on the worst caster (an independent support-polygon and moment calculation, issue figures); even share W / 6', () => {
+    const params = plateParamsSchema.parse({ ...presetParams('banyan-sprawl')!, unit: { load: { weight: 100, height: 1500 } } })
+    const plate = buildPlate(params)
+    const a = analyseUnit(plate)
+    expect(a.stability.totalWeight).toBeCloseTo(121.8, 1)
+    expect(Math.abs(a.stability.loadPerCaster - 61)).toBeLessThan(0.5)
+    expect(a.stability.evenShare).toBeCloseTo(121.8 / 6, 1)
+    // The same by the moment balance over the built pockets, the centre of mass taken at the plate's centre (the load stands there; the wood is near-symmetric).
+    const pins = plate.holes.filter((h) => h.kind === 'pocket').map((h) => [h.x, h.y] as P)
+    expect(Math.abs(a.stability.loadPerCaster - worstByMomentBalance(pins, 0, 0, 121.8))).toBeLessThan(0.5)
+  })
+
+  for (const [n, share] of [[3, 1 / 3], [4, 1 / 2], [6, 1 / 2], [8, 1 / 2]] as const) {
+    it(`${n} casters evenly round a centred load: ${share === 0.5 ? 'W/2 (two opposite casters carry a stance whose side crosses the centre)' : 'W/3 each'} (hand)`, () => {
       const plate = plateWith({ casterCount: n, tubeDiameter: 1000, casterOffset: 400 })
-      const s = unitStability(plate, { loadWeight: 300, loadHeight: 900, hardwareWeight: 12 })
-      expect(s.loadPerCaster).toBeCloseTo((300 + 12 + plate.metrics.weight) / shared, 9)
+      const s = unitStability(plate, { loadWeight: 1e6, loadHeight: 900 })
+      expect(s.loadPerCaster / s.totalWeight).toBeCloseTo(share, 4)
+      expect(s.evenShare).toBeCloseTo(s.totalWeight / n, 6)
     })
   }
 
-  it('a caster over its rating is a finding', () => {
-    const plate = plateWith({ casterCount: 4, unit: { load: { weight: 400 }, casterRating: 100 } })
-    const a = analyseUnit(plate)
-    expect(a.findings.map((f) => f.code)).toContain('caster-overload')
+  it('a caster over its typed rating is a plate error; without a typed rating there is none, however heavy', () => {
+    const over = plateWith({ casterCount: 4, unit: { load: { weight: 400 }, casterRating: 150 } })
+    // 4 casters centred: W/2 > 200 kg on the worst, over 150.
+    expect(analyseUnit(over).findings.map((f) => f.code)).toContain('caster-overload')
+    expect(over.findings.map((f) => f.code)).toContain('caster-overload')
     const light = plateWith({ casterCount: 4, unit: { load: { weight: 100 }, casterRating: 100 } })
-    expect(analyseUnit(light).findings.map((f) => f.code)).not.toContain('caster-overload')
+    // W/2 is about 55 kg with the plate and hardware: under 100.
+    expect(light.findings.map((f) => f.code)).not.toContain('caster-overload')
+    const untyped = plateWith({ casterCount: 4, unit: { load: { weight: 4000 } } })
+    expect(analyseUnit(untyped).casterRating).toBeNull()
+    expect(untyped.findings.map((f) => f.code)).not.toContain('caster-overload')
+  })
+
+  it('the caster rating has no default (CONTRACTS third round: only the maker\'s figure)', () => {
+    expect(plateParamsSchema.parse({}).unit.casterRating ?? null).toBeNull()
+    expect(unitSchema.parse({}).casterRating ?? null).toBeNull()
+    expect(unitSchema.parse({ casterRating: null }).casterRating).toBeNull()
+  })
+})
+
+describe('stability errors are plate errors (issue: Checks list, count beside Save, saved-with-errors notes)', () => {
+  it('the default plate stays clean; a unit that tips, an overloaded caster and blocks that cannot pass are among buildPlate(...).findings', () => {
+    expect(buildPlate(plateParamsSchema.parse({})).findings).toEqual([])
+    // Kingpins on 8 in: the inscribed radius is 4 in (8 cos 60), less than a 5 in lead.
+    const leaning = plateWith({ casterCount: 3, casterOffset: 8 * IN, caster: { wheelDiameter: 6 * IN, overallHeight: 7 * IN, swivelLead: 5 * IN } })
+    expect(leaning.findings.map((f) => f.code)).toContain('unit-tips')
+    const blocked = plateWith({ tubeDiameter: 24 * IN, casterOffset: 9 * IN, access: { diameter: 4.25 * IN, offset: 6 * IN }, unit: { counterweight: { count: 2 } } })
+    expect(blocked.findings.map((f) => f.code)).toContain('counterweight-passage')
+  })
+
+  it('the Checks list row says the overload in the reader\'s units: pounds with inches (1 lb = 0.45359237 kg, NIST SP 811)', () => {
+    const plate = plateWith({ casterCount: 4, unit: { load: { weight: 400 }, casterRating: 90.718474 } })
+    const row = problemRows(plate, { units: 'in', suggest: false }).find((r) => r.code === 'caster-overload')!
+    expect(row.severity).toBe('error')
+    // 90.718474 kg is exactly 200 lb.
+    expect(row.text).toContain('rating of 200 lb')
+    expect(savedErrors(plate, 'in').some((t) => t.includes('200 lb'))).toBe(true)
+  })
+
+  it('the canvas drag preview stays without findings (it is rebuilt on every pointer move)', () => {
+    const params = plateParamsSchema.parse({ unit: { load: { weight: 4000 }, casterRating: 1 } })
+    const whole = buildPlate(params)
+    expect(whole.findings.map((f) => f.code)).toContain('caster-overload')
+    expect(previewPlate(params, whole).findings).toEqual([])
+  })
+})
+
+describe('tipping: leaves its wheels, a root touches, overturns (REFERENCES third round: tipping versus overturning)', () => {
+  const plate = buildPlate(plateParamsSchema.parse({}))
+  const a = analyseUnit(plate)
+  const s = a.stability
+
+  it('the default plate and unit: leave their wheels at 2.28 deg, touch a root at 1.79 deg, overturn at about atan(249.5 / 652.5) = 20.9 deg (independent support-polygon calculation, issue figures)', () => {
+    expect(s.tippingAngle).toBeCloseTo(2.28, 2)
+    expect(s.rootTouchAngle).toBeCloseTo(1.79, 2)
+    expect(s.centreOfMassHeight).toBeCloseTo(652.5, 0)
+    expect(s.overturnDistance).toBeCloseTo(249.5, 0)
+    expect(s.overturnAngle).toBeCloseTo(Math.atan(249.5 / 652.5) / DEG, 1)
+  })
+
+  it('says which comes first: the root reaches the floor before the wheels lift, and it overturns only much later', () => {
+    const words = tippingSequence(s, (d) => `${d.toFixed(1)} deg`)
+    expect(words).toContain('A root reaches the floor at 1.8 deg')
+    expect(words).toContain('leave its wheels at 2.3 deg')
+    expect(words).toContain('overturns at 20.9 deg')
+  })
+
+  it('overturn distance by brute force over the outline (a hull side has every point on one side of it; no hull routine used) for a load-dominated unit', () => {
+    const p = plateWith({ casterCount: 4, lobes: { count: 5, reach: 120, irregularity: 0.5, seed: 7 } })
+    const st = unitStability(p, { loadWeight: 1e7, loadHeight: 1000 })
+    const pts = p.outline
+    let best = Infinity
+    for (let i = 0; i < pts.length; i++) {
+      for (let j = 0; j < pts.length; j++) {
+        if (i === j) continue
+        const [ax, ay] = pts[i]!
+        const [bx, by] = pts[j]!
+        const len = Math.hypot(bx - ax, by - ay)
+        if (len < 1e-9) continue
+        const side = (q: readonly number[]) => ((bx - ax) * (q[1]! - ay) - (by - ay) * (q[0]! - ax)) / len
+        if (pts.some((q) => side(q) < -1e-7)) continue
+        best = Math.min(best, side([0, 0]))
+      }
+    }
+    // The load (1e7 kg at the centre) puts the centre of mass at the centre to well under a micrometre.
+    expect(st.overturnDistance).toBeCloseTo(best, 3)
+    expect(st.overturnAngle).toBeCloseTo(Math.atan(best / 1000) / DEG, 3)
+  })
+
+  it('when the target lean is missed, the remedy is the caster offset R = (h tan(theta) + e) / cos(pi / n), pointing at that field, not at the target', () => {
+    // Default: h = 652.5 mm, e = 3/4 in, 3 casters, target 10 deg: R = (652.5 tan 10 + 19.05) / cos 60 (hand).
+    const hand = (652.5 * Math.tan(10 * DEG) + 19.05) / Math.cos(Math.PI / 3)
+    expect(a.remedy!.casterOffset!).toBeCloseTo(hand, 0)
+    const f = a.findings.find((x) => x.code === 'tipping-angle')!
+    expect(f.field).toBe('casterOffset')
+    expect(f.message).toContain(`${Math.round(hand)} mm`)
+    // Built with that offset (and the same unit), the plate leaves its wheels at about the target (its larger plate lowers h a little).
+    const moved = analyseUnit(buildPlate(plateParamsSchema.parse({ casterOffset: a.remedy!.casterOffset! })))
+    expect(Math.abs(moved.stability.tippingAngle - 10)).toBeLessThan(1)
+  })
+
+  it('rake and stop cautions: 1:24 is 2.39 deg, 1:12 is 4.76 deg (REFERENCES third round); a stop at tan(angle) g lifts the wheels', () => {
+    expect(RAKES.map((r) => Number(r.angle.toFixed(2)))).toEqual([2.39, 4.76])
+    const m = motionNotes(s)
+    expect(m.liftStop.g).toBeCloseTo(Math.tan(2.28 * DEG), 3)
+    expect(m.liftStop.ms2).toBeCloseTo(Math.tan(2.28 * DEG) * G, 2)
+    // 2.28 deg is less than a 1:24 rake: off its wheels on both.
+    expect(m.rakes.every((r) => r.left < 0)).toBe(true)
+  })
+
+  it('the push is never checked above the unit itself (given: a uniform column, twice the load centre above the plate; built: the tube\'s top)', () => {
+    const low = buildPlate(plateParamsSchema.parse({ unit: { load: { weight: 20, height: 400 } } }))
+    const top = low.metrics.floorGap + low.metrics.thickness
+    const la = analyseUnit(low)
+    expect(la.stability.pushHeight).toBeCloseTo(top + 2 * (400 - top), 6)
+    expect(la.pushHeightAsked).toBe(1500)
+    const built = analyseUnit(buildPlate(plateParamsSchema.parse({ unit: { load: { mode: 'built', tubeLength: 900 } } })))
+    expect(built.stability.pushHeight).toBeCloseTo(top + 900, 6)
+    const tall = analyseUnit(buildPlate(plateParamsSchema.parse({ unit: { load: { weight: 20, height: 1400 } } })))
+    expect(tall.stability.pushHeight).toBe(1500)
+  })
+
+  it('caster hardware counts at half the caster\'s overall height in the centre of mass (a product rule: casters and pans lumped, rough)', () => {
+    const p = plateWith({ casterCount: 4 })
+    const st = unitStability(p, { loadWeight: 30, loadHeight: 1000, hardwareWeight: 12 })
+    const m = p.metrics
+    const hand = (30 * 1000 + 12 * (p.params.caster.overallHeight / 2) + m.weight * (m.floorGap + m.thickness / 2)) / (42 + m.weight)
+    expect(st.centreOfMassHeight).toBeCloseTo(hand, 9)
+    // Hardware at the load's height would be a different figure: the test can tell.
+    expect(Math.abs(hand - (42 * 1000 + m.weight * (m.floorGap + m.thickness / 2)) / (42 + m.weight))).toBeGreaterThan(10)
+  })
+})
+
+describe('US units in the statics (NIST SP 811 (2008), Appendix B: 1 lb = 0.45359237 kg; 1 lbf = 4.4482216152605 N)', () => {
+  it('a push in lbf uses gravity: 444.82216 N is 100 lbf, not 980.7', () => {
+    expect(formatForce(444.82216152605, 'in')).toBe('100 lbf')
+    expect(formatForce(1308 * 4.4482216152605, 'in')).toBe('1308 lbf')
+    expect(N_PER_LBF).toBeCloseTo(4.4482216, 7)
+  })
+
+  it('"10 lb" typed into a weight is 4.5359 kg, in either unit system; a bare number is in the system\'s unit', () => {
+    for (const system of ['in', 'mm'] as const) {
+      const r = parseMass('10 lb', system)
+      expect(r.ok && r.kg).toBeCloseTo(4.5359237, 7)
+    }
+    const bare = parseMass('10', 'in')
+    expect(bare.ok && bare.kg).toBeCloseTo(4.5359237, 7)
+    const kg = parseMass('10', 'mm')
+    expect(kg.ok && kg.kg).toBe(10)
+    expect(formatMass(4.5359237, 'in')).toBe('10 lb')
+  })
+
+  it('thousands separators are read as such (CONTRACTS third round: 2,500 lb is 1133.98 kg); a decimal comma stays a decimal', () => {
+    const r = parseMass('2,500 lb')
+    expect(r.ok && r.kg).toBeCloseTo(1133.98, 2)
+    const d = parseMass('2,5 kg')
+    expect(d.ok && d.kg).toBe(2.5)
+    const e = parseMass('1,234.5 kg')
+    expect(e.ok && e.kg).toBe(1234.5)
+    expect(parseMass('2,50,0 lb').ok).toBe(false)
+    expect(parseMass('ten lb').ok).toBe(false)
+  })
+})
+
+describe('caster defaults agree with each other (values from memory for a small scenery caster; product rules, not facts)', () => {
+  const c = plateParamsSchema.parse({}).caster
+  it('the wheel fits under the caster\'s height, with a swivel section above it', () => {
+    expect(c.overallHeight).toBeGreaterThan(c.wheelDiameter)
+  })
+  it('the swivel lead is less than the wheel\'s radius and the tread narrower than the wheel', () => {
+    expect(c.swivelLead).toBeLessThan(c.wheelDiameter / 2)
+    expect(c.treadWidth).toBeLessThan(c.wheelDiameter)
+  })
+  it('the bolt pattern sits on the top plate with a bolt\'s width of steel round each hole, outside the raceway', () => {
+    expect(c.boltSpacingX + 2 * c.boltDiameter).toBeLessThanOrEqual(c.topPlateLength)
+    expect(c.boltSpacingY + 2 * c.boltDiameter).toBeLessThanOrEqual(c.topPlateWidth)
+    expect(Math.hypot(c.boltSpacingX / 2, c.boltSpacingY / 2) - c.boltDiameter / 2).toBeGreaterThan(c.racewayDiameter / 2)
   })
 })
 
