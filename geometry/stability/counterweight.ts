@@ -293,7 +293,7 @@ interface Candidates {
 }
 
 function candidates(r: number, discs: readonly Disc[], long: number, short: number, eps: number): Candidates {
-  const step = Math.max(short / 8, r / 32)
+  const step = Math.max(short / 16, r / 64)
   const turns = long === short ? 6 : 12
   const span = long === short ? Math.PI / 2 : Math.PI
   const k = Math.floor(r / step)
@@ -373,10 +373,11 @@ const LAYER_CACHE_SIZE = 32
  * openings (which must stay open to reach the pan screws). Free placement
  * with turns, keeping the layout that holds most:
  *  - row stacks (rowLayout) in directions every 3 degrees (6 for oblong
- *    blocks), the best few then topped up with single blocks at any turn;
- *  - greedy placement from empty over a fine grid of positions and turns (an
- *    eighth of the short side, turns of 15 degrees), tried wall first,
- *    centre first and row by row.
+ *    blocks), the best then topped up with single blocks at any turn;
+ *  - greedy placement from empty over a fine grid of positions and turns (a
+ *    sixteenth of the short side, at most a sixty-fourth of the tube's
+ *    radius, turns of 15 degrees), tried wall first, centre first and row by
+ *    row (the wall-first order finds the gaps between pans at the rim).
  * Ties go to the layout nearest the centre.
  */
 function layerLayout(r: number, discs: readonly Disc[], long: number, short: number): Box[] {
@@ -404,10 +405,8 @@ function layerLayout(r: number, discs: readonly Disc[], long: number, short: num
     const rowByRow = Int32Array.from({ length: cands.n }, (_, m) => m)
     const centreFirst = Int32Array.from(Array.from(rowByRow).sort((p, q) => cands.d[p]! - cands.d[q]! || p - q))
     const wallFirst = centreFirst.slice().reverse()
-    for (const rows of rowed.slice(0, 3)) {
-      consider(rows)
-      consider(fill(r, rows, cands, wallFirst, long, short, eps))
-    }
+    for (const rows of rowed) consider(rows)
+    consider(fill(r, rowed[0]!, cands, wallFirst, long, short, eps))
     for (const order of [wallFirst, centreFirst, rowByRow]) consider(fill(r, [], cands, order, long, short, eps))
   }
   if (LAYER_CACHE.size >= LAYER_CACHE_SIZE) LAYER_CACHE.delete(LAYER_CACHE.keys().next().value!)
