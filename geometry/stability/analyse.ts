@@ -90,10 +90,12 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
   const placed = layout.spots.length
   const load = resolveLoad(plate, unit)
   const casterCount = plate.holes.filter((h) => h.kind === 'pocket').length
+  // No block fits a layer: the figures leave the blocks out (and a finding says so) rather than count them at the top face.
+  const counted = layout.perLayer > 0 ? cw.count : 0
   const input: UnitInput = {
     loadWeight: load.weight,
     loadHeight: load.height,
-    counterweight: cw.count * mass,
+    counterweight: counted * mass,
     counterweightHeight: top + layout.heightAboveTop,
     counterweightAt: { x: layout.x, y: layout.y },
     pushHeight: unit.pushHeight,
@@ -151,12 +153,13 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     })
   }
   if (cw.count > 0 && (openings.length === 0 || passage >= opening)) {
+    // Blocks that cannot pass the openings can still be laid on the plate before the tube goes on.
     findings.push({
       code: 'counterweight-passage',
-      severity: 'error',
+      severity: 'warning',
       message: openings.length === 0
-        ? 'The plate has no access openings: counterweight blocks cannot be loaded or taken out again for storage.'
-        : `A block needs an opening wider than ${L(passage)} (the diagonal of its smallest end) to go in and to come out again for storage; the access openings are ${L(opening)}.`,
+        ? 'The plate has no access openings: the counterweight must go in before the tube is fixed on, and comes out only with the tube off.'
+        : `A block needs an opening wider than ${L(passage)} (the diagonal of its smallest end); the access openings are ${L(opening)}: the counterweight must go in before the tube is fixed on, and comes out only with the tube off.`,
       field: openings.length === 0 ? 'access.enabled' : 'access.diameter',
       values: { passage, opening },
     })
@@ -165,7 +168,9 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     findings.push({
       code: 'counterweight-fit',
       severity: 'error',
-      message: `Only ${layout.capacity} blocks fit inside the tube (${layout.perLayer} a layer, ${cw.maxLayers} high), clear of the pans and the access openings; ${cw.count} are loaded.`,
+      message: layout.perLayer === 0
+        ? `No block fits inside the tube clear of the pans and the access openings: the figures leave out the ${cw.count} blocks loaded.`
+        : `Only ${layout.capacity} blocks fit inside the tube (${layout.perLayer} a layer, ${cw.maxLayers} high), clear of the pans and the access openings; ${cw.count} are loaded.`,
       field: 'unit.counterweight.count',
       values: { capacity: layout.capacity, perLayer: layout.perLayer, count: cw.count },
     })
