@@ -306,7 +306,9 @@ function candidates(r: number, discs: readonly Disc[], long: number, short: numb
       probe.x = j * step
       probe.y = i * step
       const d = Math.hypot(probe.x, probe.y)
+      // The block holds the circle of half its short side round its centre: where that circle leaves the tube or meets a disc, no turn fits.
       if (d + short / 2 > r + eps) continue
+      if (discs.some((q) => Math.hypot(q.x - probe.x, q.y - probe.y) < q.r + short / 2 - eps)) continue
       for (const [c, s] of trig) {
         probe.c = c
         probe.s = s
@@ -381,7 +383,7 @@ const LAYER_CACHE_SIZE = 32
  * Ties go to the layout nearest the centre.
  */
 function layerLayout(r: number, discs: readonly Disc[], long: number, short: number): Box[] {
-  const key = [r, long, short, ...discs.flatMap((d) => [d.x, d.y, d.r])].map((v) => v.toFixed(4)).join(' ')
+  const key = [r, long, short, ...discs.flatMap((d) => [d.x, d.y, d.r])].join(' ')
   const hit = LAYER_CACHE.get(key)
   if (hit) return hit
   const eps = 1e-7 * Math.max(r, long)
