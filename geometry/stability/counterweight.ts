@@ -331,12 +331,14 @@ function fill(r: number, start: readonly Box[], cands: Candidates, order: Int32A
   const placed = new Placed(r, Math.hypot(long, short), eps)
   for (const b of start) placed.add(b)
   const probe: Box = { x: 0, y: 0, c: 1, s: 0, hw: long / 2, hh: short / 2 }
-  // Grid positions whose centre lies inside a placed block: no footprint there fits, at any turn.
+  // Grid positions nearer a placed block than half the short side: the circle every footprint there
+  // holds round its centre would reach into that block, so none fits, at any turn.
   const { k, step } = cands
   const side = 2 * k + 1
   const dead = new Uint8Array(side * side)
+  const near = short / 2 - eps
   const bury = (b: Box) => {
-    const reach = Math.hypot(b.hw, b.hh)
+    const reach = Math.hypot(b.hw, b.hh) + near
     const i0 = Math.max(-k, Math.ceil((b.y - reach) / step))
     const i1 = Math.min(k, Math.floor((b.y + reach) / step))
     const j0 = Math.max(-k, Math.ceil((b.x - reach) / step))
@@ -345,7 +347,9 @@ function fill(r: number, start: readonly Box[], cands: Candidates, order: Int32A
       for (let j = j0; j <= j1; j++) {
         const dx = j * step - b.x
         const dy = i * step - b.y
-        if (Math.abs(b.c * dx + b.s * dy) < b.hw - eps && Math.abs(-b.s * dx + b.c * dy) < b.hh - eps) dead[(i + k) * side + (j + k)] = 1
+        const qx = Math.max(Math.abs(b.c * dx + b.s * dy) - b.hw, 0)
+        const qy = Math.max(Math.abs(-b.s * dx + b.c * dy) - b.hh, 0)
+        if (qx * qx + qy * qy < near * near) dead[(i + k) * side + (j + k)] = 1
       }
     }
   }
