@@ -293,10 +293,11 @@ interface Candidates {
 }
 
 function candidates(r: number, discs: readonly Disc[], long: number, short: number, eps: number): Candidates {
-  const step = Math.max(short / 16, r / 64)
   const turns = long === short ? 6 : 12
   const span = long === short ? Math.PI / 2 : Math.PI
-  const k = Math.floor(r / step)
+  // At most about 60,000 footprints to try: a big tube with oblong blocks gets a coarser grid.
+  const k = Math.min(Math.floor(r / Math.max(short / 16, r / 64)), Math.floor(Math.sqrt(60000 / turns) / 2))
+  const step = r / k
   const size = (2 * k + 1) * (2 * k + 1) * turns
   const out: Candidates = { x: new Float64Array(size), y: new Float64Array(size), c: new Float64Array(size), s: new Float64Array(size), d: new Float64Array(size), pos: new Int32Array(size), k, step, n: 0 }
   const trig = Array.from({ length: turns }, (_, t) => [Math.cos((t * span) / turns), Math.sin((t * span) / turns)] as const)
@@ -372,6 +373,8 @@ function fill(r: number, start: readonly Box[], cands: Candidates, order: Int32A
 /** Layouts of one layer, kept per tube, discs and block so the figures can ask again cheaply. */
 const LAYER_CACHE = new Map<string, Box[]>()
 const LAYER_CACHE_SIZE = 32
+/** Above this many blocks a layer (by area) only row stacks are tried. */
+const MANY = 400
 
 /**
  * One layer of blocks lying flat (largest face down) inside the tube's inside
@@ -382,9 +385,10 @@ const LAYER_CACHE_SIZE = 32
  *    blocks), the best then topped up with single blocks at any turn;
  *  - greedy placement from empty over a fine grid of positions and turns (a
  *    sixteenth of the short side, at most a sixty-fourth of the tube's
- *    radius, turns of 15 degrees), tried wall first, centre first and row by
+ *    radius, at most about 60,000 footprints; turns of 15 degrees), tried wall first, centre first and row by
  *    row (the wall-first order finds the gaps between pans at the rim).
- * Ties go to the layout nearest the centre.
+ * Ties go to the layout nearest the centre. Blocks so small that more than
+ * MANY would cover the tube's area get row stacks every 15 degrees only.
  */
 function layerLayout(r: number, discs: readonly Disc[], long: number, short: number): Box[] {
   const key = [r, long, short, ...discs.flatMap((d) => [d.x, d.y, d.r])].join(' ')
@@ -400,7 +404,12 @@ function layerLayout(r: number, discs: readonly Disc[], long: number, short: num
       bestSpread = spread
     }
   }
-  if (r >= Math.hypot(long, short) / 2 - eps) {
+  // Blocks small beside the tube (more than MANY a layer by area): rows in a few directions are close
+  // to the best, and the finer search would cost far more than the figures need (at most 500 blocks).
+  const many = (Math.PI * r * r) / (long * short) > MANY
+  if (many) {
+    for (let a = 0; a < 90; a += 15) consider(rowLayout(r, discs, long, short, (a * Math.PI) / 180, eps))
+  } else if (r >= Math.hypot(long, short) / 2 - eps) {
     const span = long === short ? 90 : 180
     const stepDeg = long === short ? 3 : 6
     const rowed: Box[][] = []
