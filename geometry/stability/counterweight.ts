@@ -278,6 +278,62 @@ function rowLayout(r: number, discs: readonly Disc[], long: number, short: numbe
   return boxes
 }
 
+/**
+ * Bottom-left greedy in one direction (`theta`, radians), blocks square to it:
+ * up a ladder of heights (a sixteenth of the short side), each block goes at
+ * the leftmost place along the row where it fits, lying or standing,
+ * whichever starts further left. Places are exact along the row (the chord,
+ * the discs and the blocks already placed bound them), so blocks may stand
+ * staggered where row stacks cannot.
+ */
+function bottomLeft(r: number, discs: readonly Disc[], long: number, short: number, theta: number, eps: number): Box[] {
+  const c = Math.cos(theta)
+  const s = Math.sin(theta)
+  const local = discs.map((d) => ({ x: c * d.x + s * d.y, y: -s * d.x + c * d.y, r: d.r }))
+  const shapes = long === short ? [{ w: long, h: short, turn: 0 }] : [{ w: long, h: short, turn: 0 }, { w: short, h: long, turn: Math.PI / 2 }]
+  const placed: { x0: number; x1: number; y0: number; y1: number }[] = []
+  const out: Box[] = []
+  const blocked: [number, number][] = []
+  // Least x >= from where a w x h block at [y, y + h] fits, or null.
+  const leftmost = (y: number, w: number, h: number, from: number): number | null => {
+    const m = Math.max(Math.abs(y), Math.abs(y + h))
+    if (m >= r) return null
+    const half = Math.sqrt(r * r - m * m)
+    blocked.length = 0
+    for (const d of local) {
+      const gap = Math.max(y - d.y, d.y - (y + h), 0)
+      if (gap >= d.r - eps) continue
+      const ww = Math.sqrt(d.r * d.r - gap * gap)
+      blocked.push([d.x - ww - w + eps, d.x + ww - eps])
+    }
+    for (const p of placed) if (p.y0 < y + h - eps && p.y1 > y + eps) blocked.push([p.x0 - w + eps, p.x1 - eps])
+    blocked.sort((a, b) => a[0] - b[0])
+    let x = Math.max(from, -half)
+    for (const [a, b] of blocked) if (a < x && x < b) x = b
+    return x <= half - w + eps ? x : null
+  }
+  const step = short / 16
+  // y: the lower edge of a lying block; a standing one is centred on the same line.
+  for (let y = -r - long; y <= r; y += step) {
+    let from = -Infinity
+    for (;;) {
+      let best: { x: number; w: number; h: number; turn: number } | null = null
+      for (const shape of shapes) {
+        const x = leftmost(y + (short - shape.h) / 2, shape.w, shape.h, from)
+        if (x !== null && (best === null || x < best.x - eps)) best = { x, ...shape }
+      }
+      if (best === null) break
+      const y0 = y + (short - best.h) / 2
+      placed.push({ x0: best.x, x1: best.x + best.w, y0, y1: y0 + best.h })
+      const lx = best.x + best.w / 2
+      const ly = y0 + best.h / 2
+      out.push(turned(c * lx - s * ly, s * lx + c * ly, theta + best.turn, long / 2, short / 2))
+      from = best.x
+    }
+  }
+  return out
+}
+
 /** Footprints on a fine grid, each turn tried, that lie inside the tube clear of the discs: centres, cosines, sines and distances from the centre. */
 interface Candidates {
   x: Float64Array
@@ -386,7 +442,9 @@ const MANY = 400
  *  - greedy placement from empty over a fine grid of positions and turns (a
  *    sixteenth of the short side, at most a sixty-fourth of the tube's
  *    radius, at most about 60,000 footprints; turns of 15 degrees), tried wall first, centre first and row by
- *    row (the wall-first order finds the gaps between pans at the rim).
+ *    row (the wall-first order finds the gaps between pans at the rim);
+ *  - bottom-left greedy placement square to directions every 15 degrees,
+ *    exact along each row (bottomLeft).
  * Ties go to the layout nearest the centre. Blocks so small that more than
  * MANY would cover the tube's area get row stacks every 15 degrees only.
  */
@@ -423,6 +481,7 @@ function layerLayout(r: number, discs: readonly Disc[], long: number, short: num
     for (const rows of rowed) consider(rows)
     consider(fill(r, rowed[0]!, cands, wallFirst, long, short, eps))
     for (const order of [wallFirst, centreFirst, rowByRow]) consider(fill(r, [], cands, order, long, short, eps))
+    for (let a = 0; a < span; a += 15) consider(bottomLeft(r, discs, long, short, (a * Math.PI) / 180, eps))
   }
   if (LAYER_CACHE.size >= LAYER_CACHE_SIZE) LAYER_CACHE.delete(LAYER_CACHE.keys().next().value!)
   LAYER_CACHE.set(key, best)
