@@ -441,8 +441,9 @@ const MANY = 400
  *    blocks), the best then topped up with single blocks at any turn;
  *  - greedy placement from empty over a fine grid of positions and turns (a
  *    sixteenth of the short side, at most a sixty-fourth of the tube's
- *    radius, at most about 60,000 footprints; turns of 15 degrees), tried wall first, centre first and row by
- *    row (the wall-first order finds the gaps between pans at the rim);
+ *    radius, at most about 60,000 footprints; turns of 15 degrees), tried
+ *    wall first, centre first and row by row (the wall-first order finds
+ *    the gaps between pans at the rim);
  *  - bottom-left greedy placement square to directions every 15 degrees,
  *    exact along each row (bottomLeft).
  * Ties go to the layout nearest the centre. Blocks so small that more than
