@@ -5,7 +5,7 @@
 
 import { minCasterOffset, plateParamsSchema, type PlateParams, type PlateParamsInput } from './params'
 import { panRadius, placeAccess, placeCasters } from './features/placement'
-import { casterAngle, snapToHoleSaw } from './features/holes'
+import { casterAngle, HOLE_SAW_INCHES, snapToHoleSaw } from './features/holes'
 import { tubeBearing, tubeNotches } from './features/casters'
 import { TUBE_BEARING } from './checks/pans'
 
@@ -48,7 +48,8 @@ export const PRESETS: readonly Preset[] = [
       tubeDiameter: 622.3,
       casterCount: 6,
       casterOffset: 242.5,
-      access: { offset: 140, diameter: 101.6 },
+      // 4-1/2 in openings (the largest saw that fits between the pans) pass a 2 x 4 x 4 in block end first: its 2 x 4 end needs 4.47 in.
+      access: { offset: 134, diameter: 114.3 },
       lobes: { count: 10, reach: 230, width: 95, roundness: 0.2, irregularity: 0.6, seed: 4242, valley: 30 },
     },
   },
@@ -59,7 +60,8 @@ export const PRESETS: readonly Preset[] = [
     input: {
       tubeDiameter: 457.2,
       casterOffset: 160,
-      access: { offset: 150, diameter: 76.2 },
+      // 5 in openings pass a 2 x 4 x 4 in block (its 2 x 4 end needs 4.47 in) and a hand.
+      access: { offset: 157.5, diameter: 127 },
       lobes: { count: 3, reach: 60, width: 420, roundness: 1, irregularity: 0.9, seed: 99, valley: 35 },
     },
   },
@@ -92,7 +94,8 @@ export const TUBE_DIAMETER_RANGE = { min: 101.6, max: 1244.6 } as const
  * size (pockets, rabbets, casters, holes, minimum wood, plywood). The caster
  * offset is chosen afresh to hide the pans under the new trunk where it can
  * (placeCasters), and the access openings are placed between them inside the
- * tube wall (placeAccess; left out when there is no room for them). The
+ * tube wall (placeAccess), at the parent's size or the largest smaller hole
+ * saw that finds room; left out only when not even a 3/4 in saw does. The
  * new diameter is held within the field's bounds. The result always
  * satisfies the schema.
  */
@@ -126,11 +129,20 @@ export function deriveForTube(params: PlateParams, newTubeDiameter: number): Pla
   if (!placement.hidden) candidate.casterOffset = standingOffset(candidate)
   if (candidate.access.enabled) {
     const diameter = candidate.access.snapToHoleSaw ? snapToHoleSaw(candidate.access.diameter) : candidate.access.diameter
-    const offset = placeAccess(candidate, candidate.casterOffset, diameter)
-    // No room inside the tube wall between the pans: leave the openings out rather than cut them
-    // into the pans (the designer can turn them on again and size them).
-    if (offset !== null) candidate.access.offset = offset
-    else candidate.access.enabled = false
+    // The parent's opening where it fits, else the largest smaller hole saw that does (a smaller opening
+    // still reaches the pan screws); only when not even the smallest saw finds room between the pans
+    // inside the tube wall are the openings left out rather than cut into the pans.
+    const sizes = [diameter, ...HOLE_SAW_INCHES.map((inches) => (inches * 254) / 10).filter((mm) => mm < diameter - 0.25).reverse()]
+    let placed = false
+    for (const size of sizes) {
+      const offset = placeAccess(candidate, candidate.casterOffset, size)
+      if (offset === null) continue
+      candidate.access.offset = offset
+      candidate.access.diameter = size
+      placed = true
+      break
+    }
+    if (!placed) candidate.access.enabled = false
   }
   return plateParamsSchema.parse(candidate)
 }

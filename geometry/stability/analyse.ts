@@ -128,10 +128,12 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
   // A push is never checked above the unit itself.
   const unitHeight = unitHeightOf(plate, unit, load)
   const pushHeight = Math.min(unit.pushHeight, unitHeight)
+  // No block fits a layer: the figures leave the blocks out (and a finding says so) rather than count them at the top face.
+  const counted = layout.perLayer > 0 ? cw.count : 0
   const input: UnitInput = {
     loadWeight: load.weight,
     loadHeight: load.height,
-    counterweight: cw.count * mass,
+    counterweight: counted * mass,
     counterweightHeight: top + layout.heightAboveTop,
     counterweightAt: { x: layout.x, y: layout.y },
     pushHeight,
@@ -190,12 +192,13 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     })
   }
   if (cw.count > 0 && (openings.length === 0 || passage >= opening)) {
+    // Blocks that cannot pass the openings can still be laid on the plate before the tube goes on.
     findings.push({
       code: 'counterweight-passage',
-      severity: 'error',
+      severity: 'warning',
       message: openings.length === 0
-        ? 'The plate has no access openings: counterweight blocks cannot be loaded or taken out again for storage.'
-        : `A block needs an opening wider than ${L(passage)} (the diagonal of its smallest end) to go in and to come out again for storage; the access openings are ${L(opening)}.`,
+        ? 'The plate has no access openings: the counterweight must go in before the tube is fixed on, and comes out only with the tube off.'
+        : `A block needs an opening wider than ${L(passage)} (the diagonal of its smallest end); the access openings are ${L(opening)}: the counterweight must go in before the tube is fixed on, and comes out only with the tube off.`,
       field: openings.length === 0 ? 'access.enabled' : 'access.diameter',
       values: { passage, opening },
     })
@@ -204,7 +207,9 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
     findings.push({
       code: 'counterweight-fit',
       severity: 'error',
-      message: `Only ${layout.capacity} blocks fit inside the tube (${layout.perLayer} a layer, ${cw.maxLayers} high), clear of the pans and the access openings; ${cw.count} are loaded.`,
+      message: layout.perLayer === 0
+        ? `No block fits inside the tube clear of the pans and the access openings: the figures leave out the ${cw.count} blocks loaded.`
+        : `Only ${layout.capacity} blocks fit inside the tube (${layout.perLayer} a layer, ${cw.maxLayers} high), clear of the pans and the access openings; ${cw.count} are loaded.`,
       field: 'unit.counterweight.count',
       values: { capacity: layout.capacity, perLayer: layout.perLayer, count: cw.count },
     })
@@ -267,12 +272,16 @@ export function analyseUnit(plate: Plate, unitGiven?: UnitParams, format: Format
 }
 
 /**
- * The unit's errors as plate findings (buildPlate adds them): every
- * stability, caster and counterweight error, worked out without the search
- * for blocks needed. Warnings stay with the figures.
+ * The unit's plate findings (buildPlate adds them): every stability, caster
+ * and counterweight error, and the counterweight that must go in before the
+ * tube (a warning, but one the builder must know before the tube goes on),
+ * worked out without the search for blocks needed. The tipping warnings
+ * stay with the figures.
  */
+const PLATE_WARNINGS: ReadonlySet<string> = new Set(['counterweight-passage'])
+
 export function unitPlateFindings(plate: Plate, unit?: UnitParams): StabilityFinding[] {
-  return analyseUnit(plate, unit, METRIC_FORMAT, { search: false }).findings.filter((f) => f.severity === 'error')
+  return analyseUnit(plate, unit, METRIC_FORMAT, { search: false }).findings.filter((f) => f.severity === 'error' || PLATE_WARNINGS.has(f.code))
 }
 
 /** The findings alone: what a caller folding them into a plate's list needs. */

@@ -9,7 +9,7 @@
 
 import { buildPlate } from '../../geometry/plate'
 import { plateParamsSchema } from '../../geometry/params'
-import { analyseUnit, unitPlateFindings, unitStability } from '../../geometry/stability'
+import { analyseUnit, layoutBlocks, unitPlateFindings, unitStability } from '../../geometry/stability'
 
 const GOAL_MS = 0.2
 const WARMUP = 300
@@ -56,4 +56,26 @@ for (const c of cases) {
   console.log(`  worst caster ${s.loadPerCaster.toFixed(1)} kg over any three of ${s.kingpins.length} wheels (even share ${s.evenShare.toFixed(1)} kg)`)
   console.log(`  unitPlateFindings median ${median(join).toFixed(4)} ms (goal ${GOAL_MS} ms, ratio ${(median(join) / GOAL_MS).toFixed(2)}; inside every buildPlate)`)
   console.log(`  analyseUnit median ${median(full).toFixed(3)} ms (figures, blocks needed, findings)`)
+}
+
+// The counterweight layout (layoutBlocks) is worked out once per tube, pans, openings and block, then
+// reused (analyseUnit asks twice); timed here on fresh blocks so nothing is reused. For information:
+// it runs when the statics panel settles, not during a drag.
+{
+  const IN = 25.4
+  const layouts = [
+    { name: '24.5 in tube, 3 casters, 5 in openings, 2 x 4 x 4 in blocks', params: { tubeDiameter: 24.5 * IN, casterCount: 3, casterOffset: 8.5 * IN, access: { diameter: 5 * IN, offset: 5 * IN } }, block: [4, 4, 2] },
+    { name: '49 in tube, 8 casters, 2 x 2 x 1 in blocks', params: { tubeDiameter: 49 * IN, casterCount: 8, casterOffset: 20 * IN, access: { offset: 14 * IN, diameter: 5 * IN } }, block: [2, 2, 1] },
+  ]
+  for (const c of layouts) {
+    const plate = buildPlate(plateParamsSchema.parse(c.params))
+    const times: number[] = []
+    for (let i = 0; i < 12; i++) {
+      const block = { length: c.block[0]! * IN + i * 1e-3, width: c.block[1]! * IN, thickness: c.block[2]! * IN }
+      const t0 = performance.now()
+      layoutBlocks(plate, block, 500, 3)
+      times.push(performance.now() - t0)
+    }
+    console.log(`${c.name}: layoutBlocks median ${median(times).toFixed(1)} ms`)
+  }
 }

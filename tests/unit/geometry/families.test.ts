@@ -103,3 +103,45 @@ describe('every starting shape on every tube the field takes', () => {
     }
   }, 60_000)
 })
+
+describe('derived sizes keep their access openings wherever a hole saw fits between the pans', () => {
+  // By hand: an opening of radius r at offset a, midway between neighbouring pans (n casters at offset d,
+  // rim radius R = 66.675 mm), stands clear when a + r stays 1 mm inside the tube's inside wall, and the
+  // minimum wood is left to the centre hole (a - r - centre / 2), to each pan (law of cosines:
+  // sqrt(a^2 + d^2 - 2 a d cos(pi / n)) - R - r) and to the next opening (2 a sin(pi / n) - 2 r).
+  // Offsets are scanned every 0.1 mm. Hole saws: 3/4 to 6 in in 1/8 in steps (REFERENCES, "Hole saws").
+  const room = (p: ReturnType<typeof deriveForTube>, r: number) => {
+    const R = 66.675
+    const half = Math.PI / p.casterCount
+    const inside = p.tubeDiameter / 2 - p.tubeWall - 1
+    for (let a = 0; a + r <= inside; a += 0.1) {
+      const wood = Math.min(
+        a - r - p.centreHoleDiameter / 2,
+        Math.sqrt(a * a + p.casterOffset ** 2 - 2 * a * p.casterOffset * Math.cos(half)) - R - r,
+        2 * a * Math.sin(half) - 2 * r,
+      )
+      if (wood >= p.minWood) return true
+    }
+    return false
+  }
+
+  it.each(['gnarled-oak', 'banyan-sprawl', 'river-stone', 'plain-column'])('%s on tubes of 4 to 40 in', (id) => {
+    const parent = presetParams(id)!
+    expect(parent.access.enabled).toBe(true)
+    for (let inches = 4; inches <= 40; inches += 2) {
+      const size = deriveForTube(parent, inches * INCH)
+      if (size.access.enabled) {
+        expect(size.access.diameter, `${id} ${inches} in`).toBeLessThanOrEqual(parent.access.diameter + 0.01)
+        const eighths = size.access.diameter / INCH * 8
+        expect(Math.abs(eighths - Math.round(eighths)), `${id} ${inches} in: a hole-saw size`).toBeLessThan(1e-6)
+        expect(room(size, size.access.diameter / 2 - 0.05), `${id} ${inches} in`).toBe(true)
+        const plate = buildPlate(size)
+        expect(plate.holes.filter((h) => h.kind === 'access').length).toBe(size.casterCount)
+        expect(plate.findings.filter((f) => f.severity === 'error'), `${id} ${inches} in`).toEqual([])
+      } else {
+        // Left out only when not even a 3/4 in saw finds room.
+        expect(room(size, (0.75 * INCH) / 2), `${id} ${inches} in`).toBe(false)
+      }
+    }
+  }, 60_000)
+})

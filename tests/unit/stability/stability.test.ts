@@ -159,7 +159,9 @@ describe('load per caster: the worst caster over every three-wheel stance that h
   })
 
   it('the six-caster banyan preset with 100 kg at 1500 mm: W = 121.8 kg, about 61 kg on the worst caster (an independent support-polygon and moment calculation, issue figures); even share W / 6', () => {
-    const params = plateParamsSchema.parse({ ...presetParams('banyan-sprawl')!, unit: { load: { weight: 100, height: 1500 } } })
+    // The preset as the issue's calculation took it, with its former 4 in openings at 140 mm (the preset now has
+    // 4-1/2 in openings that pass the default block; the wood they take would move W off the published figure).
+    const params = plateParamsSchema.parse({ ...presetParams('banyan-sprawl')!, access: { offset: 140, diameter: 101.6 }, unit: { load: { weight: 100, height: 1500 } } })
     const plate = buildPlate(params)
     const a = analyseUnit(plate)
     expect(a.stability.totalWeight).toBeCloseTo(121.8, 1)
@@ -392,22 +394,7 @@ describe('a block passes a round opening when its smallest cross-section\'s diag
     const none = plateWith({ tubeDiameter: 24 * IN, casterOffset: 9 * IN, access: { enabled: false }, unit: { counterweight: { count: 2 } } })
     expect(analyseUnit(none).findings.map((f) => f.code)).toContain('counterweight-passage')
   })
-
-  it('finding when more blocks are loaded than fit inside the tube, and the blocks that fit lie inside it clear of the pans', () => {
-    const plate = plateWith({ tubeDiameter: 24 * IN, casterOffset: 9 * IN, access: { diameter: 5 * IN, offset: 6 * IN }, unit: { counterweight: { count: 400, maxLayers: 2 } } })
-    const a = analyseUnit(plate)
-    expect(a.findings.map((f) => f.code)).toContain('counterweight-fit')
-    const inner = plate.trunk.innerDiameter / 2
-    for (const s of a.layout.spots) {
-      for (const [x, y] of s.corners) expect(Math.hypot(x, y)).toBeLessThanOrEqual(inner + 1e-9)
-      for (const r of plate.rabbets) {
-        // Nearest point of the footprint to the pan's centre, worked out here.
-        const nx = Math.max(s.corners[0]![0], Math.min(r.x, s.corners[2]![0]))
-        const ny = Math.max(s.corners[0]![1], Math.min(r.y, s.corners[2]![1]))
-        expect(Math.hypot(nx - r.x, ny - r.y)).toBeGreaterThanOrEqual(r.diameter / 2 - 1e-9)
-      }
-    }
-  })
+  // Blocks that fit, and every spot checked: tests/unit/stability/counterweight.test.ts.
 })
 
 describe('counterweight needed for a target angle or push', () => {
