@@ -106,8 +106,8 @@ let passwordHash = ''
 const png = makePng(16, 12, [{ x: 8, y: 6, r: 3 }])
 const today = new Date().toISOString().slice(0, 10)
 
-async function shopOf(name: string): Promise<ShopFixture> {
-  const made = await makeShop(name, roles.map(role => ({ role, name: `Guard ${role}` })))
+async function shopOf(name: string, folk: string): Promise<ShopFixture> {
+  const made = await makeShop(name, roles.map(role => ({ role, name: `${folk} ${role}` })))
   const people = {} as Record<Role, TestPerson>
   const cookies = {} as Record<Role, string>
   for (const [i, role] of roles.entries()) {
@@ -324,7 +324,7 @@ const GUARDS: Guard[] = [
   { route: 'POST /api/shop/invitations', who: 'crew', scoped: false, target: async () => ({ path: '/api/shop/invitations', body: { email: uniqueEmail('guard-new'), role: 'viewer' } }) },
   { route: 'DELETE /api/shop/invitations/[id]', who: 'crew', target: async () => ({ path: `/api/shop/invitations/${await newInvitation()}` }) },
   { route: 'POST /api/shop/invitations/[id]/resend', who: 'crew', target: async () => ({ path: `/api/shop/invitations/${await newInvitation()}/resend` }) },
-  { route: 'GET /api/shop/activity', who: 'crew', scoped: false, target: async () => ({ path: '/api/shop/activity', secret: design.name }) },
+  { route: 'GET /api/shop/activity', who: 'crew', scoped: false, target: async () => ({ path: '/api/shop/activity', secret: 'Homefield lead' }) },
   { route: 'GET /api/dev/mail', who: 'crew', scoped: false, target: async () => ({ path: '/api/dev/mail' }) },
 ]
 
@@ -409,7 +409,7 @@ async function runCell(g: Guard, cell: Cell | null): Promise<string | null> {
 
 beforeAll(async () => {
   passwordHash = await hasher.make('guard-fresh-pass')
-  ;[home, away] = await Promise.all([shopOf(`Guard Home Players ${process.pid}`), shopOf(`Guard Away Theatre ${process.pid}`)])
+  ;[home, away] = await Promise.all([shopOf(`Guard Home Players ${process.pid}`, 'Homefield'), shopOf(`Guard Away Theatre ${process.pid}`, 'Awayfield')])
   design = await newDesign(`Guard elm ${tag()}`)
   attachmentId = await newAttachment()
   unitLabel = `Guard label ${tag()}`
