@@ -245,14 +245,14 @@ describe('invitations', () => {
   it('an invitation older than seven days answers 410', async () => {
     const email = uniqueEmail('late')
     const inv = await invite(email, 'viewer')
+    // The invitation was issued with a seven-day life: its end less its making (not its age, which is nought).
+    const life = await testSql<{ seconds: number }[]>(`select extract(epoch from (expires_at - created_at))::float8 as seconds from invitations where id = $1`, [inv.id])
+    expect(Math.abs(life[0]!.seconds - 7 * 86_400)).toBeLessThan(60)
     await testSql(`update invitations set expires_at = now() - interval '1 minute' where id = $1`, [inv.id])
     expect((await api(`/api/invitations/${tokenOf(inv.link)}`)).status).toBe(410)
     const res = await api(`/api/invitations/${tokenOf(inv.link)}/accept`, { method: 'POST', body: { name: 'Late', password: 'long-enough-pass' } })
     expect(res.status).toBe(410)
     expect(res.body.message).toMatch(/expired/)
-    // The invitation was issued with a seven-day life: its end less its making (not its age, which is nought).
-    const life = await testSql<{ seconds: number }[]>(`select extract(epoch from (expires_at - created_at))::float8 as seconds from invitations where id = $1`, [inv.id])
-    expect(Math.abs(life[0]!.seconds - 7 * 86_400)).toBeLessThan(60)
   })
 
   it('a malformed or unknown link answers 404', async () => {
