@@ -1,10 +1,10 @@
 // The stability panel in Chromium: change the load and the counterweight and
-// watch the tipping angle and the side elevation follow. Any console error
-// or page error fails the test. The design is this test's own.
+// watch the tipping angle and the side elevation follow. Any console error,
+// page error, failed request or error answer fails the test. The design is this test's own.
 import { mkdirSync } from 'node:fs'
-import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { afterAll, afterEach, beforeAll, describe, expect, it, inject } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
-import { launchChromium } from './support/browser'
+import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { api, demo, signIn } from './support/api'
 import { signInThroughForm } from './support/sign-in'
 
@@ -33,17 +33,16 @@ beforeAll(async () => {
   designId = created.body.id
 })
 afterAll(() => browser?.close())
+// Console errors, uncaught exceptions, failed requests and error answers fail the test (tests/e2e/support/browser.ts).
+afterEach(() => { expect(takePageProblems()).toEqual([]) })
 
-async function open(): Promise<{ page: Page; problems: string[] }> {
+async function open(): Promise<{ page: Page }> {
   const base = inject('baseUrl')
-  const page = await browser.newPage({ viewport: { width: 1400, height: 1000 } })
-  const problems: string[] = []
-  page.on('console', (m) => { if (m.type() === 'error') problems.push(m.text()) })
-  page.on('pageerror', (e) => problems.push(e.message))
+  const page = watchPage(await browser.newPage({ viewport: { width: 1400, height: 1000 } }))
   await signInThroughForm(page, demo.designer)
   await page.goto(`${base}/designs/${designId}`)
   await page.getByTestId('stability-panel').waitFor()
-  return { page, problems }
+  return { page }
 }
 
 const angleOf = async (page: Page) => Number((await page.getByTestId('stability-tipping-angle').textContent())!.replace(/[^\d.-]/g, ''))
@@ -51,7 +50,7 @@ const comY = async (page: Page) => Number(await page.getByTestId('side-elevation
 
 describe('stability in the editor', () => {
   it('a heavier, higher load lowers the tipping angle; counterweight blocks raise it; the side elevation follows', async () => {
-    const { page, problems } = await open()
+    const { page } = await open()
     const angle0 = await angleOf(page)
     const com0 = await comY(page)
     expect(angle0).toBeGreaterThan(0)
@@ -77,7 +76,6 @@ describe('stability in the editor', () => {
 
     await page.getByTestId('stability-panel').screenshot({ path: `${shots}/stability-panel.png` })
     await page.screenshot({ path: `${shots}/stability-editor.png` })
-    expect(problems).toEqual([])
     await page.close()
   })
 })
