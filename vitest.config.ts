@@ -36,6 +36,9 @@ export default defineConfig({
           environment: 'node',
           globalSetup: ['tests/e2e/global-setup.ts'],
           fileParallelism: false,
+          // expect.poll waits for a state with a deadline; its 1 s default is shorter than one
+          // page update takes on a 2-core machine under load, so the e2e deadline is 15 s.
+          expect: { poll: { timeout: 15_000 } },
           testTimeout: 60_000,
           hookTimeout: 180_000,
         },

@@ -10,7 +10,7 @@ import type { Browser } from 'playwright-core'
 import { createDatabase } from '../../server/utils/db'
 import { revisions } from '../../server/database/schema'
 import { api, demo, signIn } from './support/api'
-import { launchChromium } from './support/browser'
+import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { cluster } from './support/cluster'
 import { plateDefaults } from './support/plate'
 import { recreateDatabase, withDatabase } from './support/fixtures'
@@ -91,11 +91,9 @@ describe('the database stopped and started again', () => {
 
   it('in Chromium the editor says the database is away, keeps the unsaved change, and saves it once it is back', async () => {
     const base = inject('baseUrl')
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } })
-    const consoleErrors: string[] = []
-    // The browser logs each refused request itself; only those 503s are expected here.
-    page.on('console', (m) => { if (m.type() === 'error' && !/status of 503/.test(m.text())) consoleErrors.push(m.text()) })
-    page.on('pageerror', e => consoleErrors.push(e.message))
+    // Only the 503 answers of the outage are expected (and the browser's own log line for each); any other
+    // console error, uncaught exception, failed request or error answer fails the test.
+    const page = watchPage(await browser.newPage({ viewport: { width: 1280, height: 800 } }), [/^answer 503: /, /^console error: Failed to load resource: the server responded with a status of 503/])
     await page.goto(`${base}/login`)
     await page.getByLabel('E-mail').fill(demo.designer)
     await page.getByLabel('Password').fill('rootplate-demo')
@@ -135,8 +133,8 @@ describe('the database stopped and started again', () => {
     // 17-1/2 in = 444.5 mm (1 in = 25.4 mm exactly, NIST SP 811).
     expect(latest.body.latest.params.tubeDiameter).toBeCloseTo(444.5, 6)
     expect(latest.body.latest.note).toBe('Saved across an outage')
-    expect(consoleErrors).toEqual([])
     await page.close()
+    expect(takePageProblems()).toEqual([])
   })
 
   it('a server pointed at a database without Rootplate\'s migrations refuses to start and says how to fix it', async () => {

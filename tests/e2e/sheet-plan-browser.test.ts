@@ -1,14 +1,14 @@
 // The sheet plan page in Chromium: open it from a show, plan 2 + 2 + 2 of the
 // three designs of this test's own shop, see the layouts, change a count and see the answer follow,
 // download the PDF and a sheet's DXF and read them back (pdf-lib,
-// dxf-parser). Any console error or page error fails the test. Screenshots
+// dxf-parser). Any console error, page error, failed request or error answer fails the test. Screenshots
 // go to test-results/e2e/plan-*.png.
 import { mkdirSync, readFileSync } from 'node:fs'
-import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { afterAll, afterEach, beforeAll, describe, expect, it, inject } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { PDFDocument } from 'pdf-lib'
 import DxfParser from 'dxf-parser'
-import { launchChromium } from './support/browser'
+import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { planShop } from './support/plan'
 import { signInThroughForm } from './support/sign-in'
 
@@ -22,15 +22,14 @@ beforeAll(async () => {
   browser = await launchChromium()
 })
 afterAll(() => browser?.close())
+// Console errors, uncaught exceptions, failed requests and error answers fail the test (tests/e2e/support/browser.ts).
+afterEach(() => { expect(takePageProblems()).toEqual([]) })
 
 describe('the sheet plan page', () => {
   it('plans 2 + 2 + 2, follows a changed count, and downloads the PDF and a sheet\'s DXF', async () => {
     const base = inject('baseUrl')
     const context = await browser.newContext({ viewport: { width: 1400, height: 1000 }, acceptDownloads: true })
-    const page = await context.newPage()
-    const problems: string[] = []
-    page.on('console', (m) => { if (m.type() === 'error') problems.push(m.text()) })
-    page.on('pageerror', (e) => problems.push(e.message))
+    const page = watchPage(await context.newPage())
 
     await signInThroughForm(page, shop.email, shop.password)
     await page.getByRole('link', { name: 'Sheet plan' }).click()
@@ -81,7 +80,6 @@ describe('the sheet plan page', () => {
     const outsides = dxf.entities.filter((e: any) => e.layer === 'RP-OUTSIDE-CUT')
     expect(outsides.length).toBe(await page.getByTestId('plan-sheet-0').getByTestId('plan-part').count())
 
-    expect(problems).toEqual([])
     await context.close()
   })
 })

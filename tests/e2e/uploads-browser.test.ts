@@ -1,9 +1,9 @@
 import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { afterAll, afterEach, beforeAll, describe, expect, it, inject } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
-import { launchChromium } from './support/browser'
+import { launchChromium, takePageProblems, watchPage } from './support/browser'
 import { makePng } from './support/files'
 import { signInThroughForm } from './support/sign-in'
 
@@ -16,15 +16,14 @@ beforeAll(async () => {
   browser = await launchChromium()
 })
 afterAll(() => browser?.close())
+// Console errors, uncaught exceptions, failed requests and error answers fail the test (tests/e2e/support/browser.ts).
+afterEach(() => { expect(takePageProblems()).toEqual([]) })
 
-/** A page signed in as the given demo member; console errors and page errors are collected. */
-async function signedIn(email: string): Promise<{ page: Page; errors: string[] }> {
-  const page = await browser.newPage({ viewport: { width: 1440, height: 900 } })
-  const errors: string[] = []
-  page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()) })
-  page.on('pageerror', e => errors.push(e.message))
+/** A page signed in as the given demo member, watched for console errors, page errors, failed requests and error answers. */
+async function signedIn(email: string): Promise<{ page: Page }> {
+  const page = watchPage(await browser.newPage({ viewport: { width: 1440, height: 900 } }))
   await signInThroughForm(page, email)
-  return { page, errors }
+  return { page }
 }
 
 async function centre(page: Page, selector: string) {
@@ -36,7 +35,7 @@ async function centre(page: Page, selector: string) {
 describe('reference image under the plate, in Chromium', () => {
   it('uploads a photo, scales it by two points to a known distance, and it matches the plate\'s scale', async () => {
     const base = inject('baseUrl')
-    const { page, errors } = await signedIn('designer@rootplate.test')
+    const { page } = await signedIn('designer@rootplate.test')
     // Our own design (default params: three casters), so the shared demo stays untouched.
     const created = await page.request.post(`${base}/api/designs`, { data: { name: `Traced stump ${stamp}`, params: {} } })
     expect(created.status()).toBe(201)
@@ -109,7 +108,6 @@ describe('reference image under the plate, in Chromium', () => {
     const revisions = await (await page.request.get(`${base}/api/designs/${designId}/revisions`)).json()
     expect(revisions).toHaveLength(1)
     await page.screenshot({ path: `${shots}/reference-turned.png` })
-    expect(errors).toEqual([])
     await page.close()
   })
 })
@@ -117,7 +115,7 @@ describe('reference image under the plate, in Chromium', () => {
 describe('the register of units, in Chromium', () => {
   it('a builder records a unit, moves it through two stages, lends it and takes it back', async () => {
     const base = inject('baseUrl')
-    const { page, errors } = await signedIn('builder@rootplate.test')
+    const { page } = await signedIn('builder@rootplate.test')
     await page.getByRole('link', { name: 'Units' }).click()
     await page.waitForURL(`${base}/units`)
     await page.getByTestId('new-unit').click()
@@ -150,13 +148,12 @@ describe('the register of units, in Chromium', () => {
     await page.getByTestId('unit-table').waitFor()
     expect(await page.getByTestId('unit-table').locator('tbody tr').count()).toBe(1)
     await page.screenshot({ path: `${shots}/units-list.png` })
-    expect(errors).toEqual([])
     await page.close()
   })
 
   it('the home page lists a loan past its due date', async () => {
     const base = inject('baseUrl')
-    const { page, errors } = await signedIn('lead@rootplate.test')
+    const { page } = await signedIn('lead@rootplate.test')
     const made = await page.request.post(`${base}/api/units`, { data: { kind: 'pattern', label: `LATE-${stamp}` } })
     const id = (await made.json()).id
     const day = (d: number) => new Date(Date.now() + d * 86_400_000).toISOString().slice(0, 10)
@@ -166,7 +163,6 @@ describe('the register of units, in Chromium', () => {
     await box.waitFor()
     await expect(box.getByText(`LATE-${stamp}`).isVisible()).resolves.toBe(true)
     await page.screenshot({ path: `${shots}/home-overdue.png` })
-    expect(errors).toEqual([])
     await page.close()
   })
 })

@@ -11,7 +11,7 @@ import { ExportPool } from '../../../server/services/export-pool'
 import { ExportRunner, ExportsQueueFullError } from '../../../server/services/export-runner'
 
 const revision = { number: 1, params: {}, designName: 'Fair test ash', sizeLabel: null, createdAt: new Date('2026-03-01T12:00:00Z') }
-const job = (tag: string): ExportJob => ({ kind: 'cut-svg', revision: { ...revision, designName: tag }, query: { units: 'in', reference: true, mirror: false, layer: 'all' } })
+const job = (tag: string): ExportJob => ({ kind: 'cut-svg', revision: { ...revision, designName: tag }, query: { units: 'in', reference: true, mirror: false, layer: 'all', openings: 'routed' } })
 
 const dir = mkdtempSync(join(tmpdir(), 'rootplate-fair-'))
 afterAll(() => rmSync(dir, { recursive: true, force: true }))

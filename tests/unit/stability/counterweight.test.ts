@@ -30,7 +30,7 @@ interface Disc {
 function tube(r: number, discs: Disc[] = []) {
   return {
     trunk: { x: 0, y: 0, diameter: 2 * r, innerDiameter: 2 * r },
-    rabbets: discs.map((d, i) => ({ pocketId: `p${i}`, x: d.x, y: d.y, diameter: 2 * d.r })),
+    rabbets: discs.map((d, i) => ({ pocketId: `p${i}`, x: d.x, y: d.y, diameter: 2 * d.r, depth: 9.525 })),
     holes: [],
   }
 }
