@@ -156,8 +156,8 @@ const baseSchema = z.object({
   minWood: length(3, 100, inch(0.75)),
   /** Glued plywood layers. */
   layers: z.number().int().min(1).max(4).default(2),
-  /** One sheet's actual thickness, mm. Default: a "3/4 in" panel labelled 0.703 in (PS 1-19, performance category 23/32). */
-  sheetThickness: length(3, 40, inch(0.703)),
+  /** One sheet's actual thickness, mm. Default: plywood as the shop buys it, 23/32 in, sold as "3/4 in" (PS 1-19 performance category 23/32, 0.688-0.750 in). */
+  sheetThickness: length(3, 40, inch(23 / 32)),
   /** Least acceptable gap between the plate's underside and the floor, mm: clears floor joints, tape and cable covers. Default 1/4 in (from memory). */
   minFloorGap: length(0, 100, inch(0.25)),
   /** What stands on the plate (load, counterweight, caster rating, push to check); see geometry/stability. */
