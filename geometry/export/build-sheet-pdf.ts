@@ -18,9 +18,43 @@ import { savedErrors, savedErrorsLine } from './plate-notes'
 
 const FONT = 'F1'
 
-/** A length as the carpenter measures it: inches to the nearest 1/16 (a tape's marks), millimetres to the nearest 1. */
+/**
+ * A length as the carpenter measures it: inches to the nearest 1/16 (a tape's
+ * marks), and to the nearest 1/32 below an inch, where a sheet's thickness, a
+ * rabbet's depth or a drill's size is read (23/32 in is not 3/4 in);
+ * millimetres to the nearest 1, and to 0.5 below 25 mm.
+ */
 export function sheetLength(mm: number, units: ExportUnits): string {
-  return units === 'in' ? formatInches(mm, { denominator: 16 }).replace(/"$/, ' in') : formatMillimetres(mm, { step: 1 })
+  const small = Math.abs(mm) < MM_PER_INCH - MM_PER_INCH / 64
+  if (units === 'in') return formatInches(mm, { denominator: small ? 32 : 16 }).replace(/"$/, ' in')
+  return formatMillimetres(mm, { step: small ? 0.5 : 1 })
+}
+
+/**
+ * Retail names of the plywood performance categories of PS 1-19: a panel is
+ * sold by a nominal size thicker than it is. 23/32 for "3/4 in" is in
+ * REFERENCES (0.688-0.750 in); the other pairs are from memory.
+ */
+const SOLD_AS: readonly { category: number; sold: string; min: number; max: number }[] = [
+  { category: 23 / 32, sold: '3/4 in', min: 0.688, max: 0.75 },
+  { category: 19 / 32, sold: '5/8 in', min: 0.563, max: 0.625 },
+  { category: 15 / 32, sold: '1/2 in', min: 0.438, max: 0.5 },
+  { category: 11 / 32, sold: '3/8 in', min: 0.313, max: 0.375 },
+]
+
+/** One sheet of plywood as the shop buys it: `23/32 in plywood (sold as 3/4 in)`. */
+export function plywoodName(mm: number, units: ExportUnits): string {
+  const inches = mm / MM_PER_INCH
+  const cat = SOLD_AS.find((c) => inches >= c.min - 1e-6 && inches <= c.max + 1e-6)
+  if (!cat) return `${sheetLength(mm, units)} plywood`
+  return units === 'in'
+    ? `${sheetLength(mm, 'in')} plywood (sold as ${cat.sold})`
+    : `${sheetLength(mm, 'mm')} plywood (sold as ${cat.sold}, category ${sheetLength(cat.category * MM_PER_INCH, 'in')})`
+}
+
+/** Trim left all round a plate's blank for the saw and the router to clean the edge to the line: 1/2 in or 12 mm (common shop practice, from memory). */
+export function blankAllowance(units: ExportUnits): number {
+  return units === 'in' ? MM_PER_INCH / 2 : 12
 }
 
 export interface BuildSheetMeta {
@@ -243,6 +277,7 @@ function firstPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptio
   header(page, o.meta, 1, o.units, savedErrors(plate, o.units))
   const L = (mm: number) => sheetLength(mm, o.units)
   const p = plate.params
+  const total = p.layers * p.sheetThickness
   const drawH = page.y - MARGIN - 250
   drawPlate(page, plate, a, o.units, { x: MARGIN, y: page.y - drawH, w: page.width - 2 * MARGIN, h: drawH })
   page.y -= drawH + 8
@@ -259,7 +294,7 @@ function firstPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptio
     ['Pockets', `${L(p.pocketDiameter)}, rabbet ${L(p.rabbetWidth)} wide × ${L(p.rabbetDepth)} deep`],
     ['Access openings', access ? `${plate.holes.filter((h) => h.kind === 'access').length} × ${L(access.diameter)} at ${L(Math.hypot(access.x, access.y))} from centre` : 'none'],
     ['Centre and index holes', `${L(p.centreHoleDiameter)}; ${index.length} × ${L(p.indexHoleDiameter)} on the clocking axis`],
-    ['Thickness, floor gap', `${L(plate.metrics.thickness)}, ${L(plate.metrics.floorGap)}`],
+    ['Thickness, floor gap', `${L(total)} (${p.layers} × ${L(p.sheetThickness)}), ${L(plate.metrics.floorGap)}`],
   ], [0, 130], 8, MARGIN)
   page.y -= 4
   page.para('Drawing: outline (green), rabbets (amber), holes, caster top plates (blue), trunk (dashed), counterweight blocks (shaded), centre of mass (cross) and the tipping line (red, dashed).', 7.5, MARGIN, colW - 10, COLOURS.muted)
@@ -278,14 +313,19 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   const w = plate.metrics.width
   const h = plate.metrics.height
 
+  // One total thickness, worked out once and printed the same everywhere.
+  const total = p.layers * p.sheetThickness
+  const allow = blankAllowance(u)
+  const blank = `${L(w + 2 * allow)} × ${L(h + 2 * allow)}`
   page.heading('Cut list')
   const layers = Array.from({ length: p.layers }, (_, i) => [
     `Layer ${i + 1}${i === 0 ? ' (top)' : i === p.layers - 1 ? ' (bottom)' : ''}`,
-    `plywood, ${L(p.sheetThickness)} thick`,
-    `${L(w)} × ${L(h)} blank`,
+    plywoodName(p.sheetThickness, u),
+    blank,
     i === 0 ? `outline, ${n} pockets with rabbets, openings, centre and index holes` : 'outline, pockets, openings, centre and index holes; no rabbet',
   ])
-  page.table([['layer', 'sheet', 'size', 'cuts'], ...layers], [0, 90, 210, 330])
+  page.table([['layer', 'sheet', 'blank', 'cuts'], ...layers], [0, 80, 215, 330])
+  page.para(`Each blank is the plate's overall ${L(w)} × ${L(h)} plus ${L(allow)} all round for the saw and the router (common practice). Glued up: ${p.layers} layer${p.layers === 1 ? '' : 's'}, ${L(total)} thick in all.`, 8, MARGIN, page.width - 2 * MARGIN, COLOURS.muted)
 
   page.heading('Hardware')
   const cw = a.unit.counterweight
@@ -297,7 +337,7 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   const rows = [
     ['item', 'count', 'size'],
     ['Swivel casters', `${n}`, `${L(p.caster.wheelDiameter)} wheel, ${L(p.caster.overallHeight)} tall, swivel lead ${L(p.caster.swivelLead)}, rated ${M(a.casterRating)} each`],
-    ['Pans', `${n}`, `rim to fit a ${L(p.pocketDiameter + 2 * p.rabbetWidth)} rabbet, ${L(p.panDepth)} deep, over a ${L(p.pocketDiameter)} pocket`],
+    ['Pans', `${n}`, `rim to fit a ${L(p.pocketDiameter + 2 * p.rabbetWidth)} rabbet, ${L(p.panDepth)} from the rim's underside to the crown, over a ${L(p.pocketDiameter)} pocket`],
     ['Pan fasteners', `${plate.fasteners.length}`, `${p.fasteners.count} per pan, ${L(p.fasteners.diameter)} holes drilled through the rabbet floor${rimCircle ? ` on a ${L(rimCircle)} circle` : ''} (${L(p.rabbetDepth)} below the top face)`],
     ['Caster bolts, nuts, washers', `${n * bolts}`, `${L(p.caster.boltDiameter)}, on ${L(p.caster.boltSpacingX)} × ${L(p.caster.boltSpacingY)} centres`],
     ['Counterweight blocks', `${cw.count}`, `${COUNTERWEIGHT_MATERIALS[cw.material].label.toLowerCase()} ${L(cw.block.length)} × ${L(cw.block.width)} × ${L(cw.block.thickness)}, ${M(a.block.mass)} each, ${M(cw.count * a.block.mass)} in all`],
@@ -305,13 +345,24 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   page.table(rows, [0, 150, 200])
 
   page.heading('Build steps')
+  const rise = Math.max(0, p.panDepth - p.rabbetDepth)
+  const openings = plate.holes.filter((x) => x.kind === 'access')
   const steps = [
-    `Laminate: glue ${p.layers} sheets of ${L(p.sheetThickness)} plywood into one panel; register the layers on the centre and index holes.`,
-    `Cut the outline with a jigsaw just outside the line; clean it with a router following the pattern.`,
-    `Route the rabbets in the top layer: ${L(p.rabbetWidth)} wide, ${L(p.rabbetDepth)} deep round each pocket.`,
-    `Drill and saw: pockets ${L(p.pocketDiameter)}, access openings, centre hole ${L(p.centreHoleDiameter)}, index holes ${L(p.indexHoleDiameter)}, ${plate.fasteners.length} pan-fastener holes ${L(p.fasteners.diameter)} through the rabbet floors.`,
-    `Fit the pans: drop each through its pocket, rim in the rabbet, and bolt the rim through the ${p.fasteners.count} holes round each pocket.`,
-    `Fit the casters to the pans' crowns with each top plate square to its radial line (see the caster orientation on page 1).`,
+    `Cut ${p.layers} blank${p.layers === 1 ? '' : 's'} of ${blank} from ${plywoodName(p.sheetThickness, u)}.`,
+    p.layers > 1
+      ? `Stack the blanks, the top layer's good face up, tape the template on top and drill the centre hole (${L(p.centreHoleDiameter)}) and the index holes (${L(p.indexHoleDiameter)}) through the template and every layer, before the layers part: these holes register them.`
+      : `Tape the template on the blank, good face up, and drill the centre hole (${L(p.centreHoleDiameter)}) and the index holes (${L(p.indexHoleDiameter)}) through the template.`,
+    p.layers > 1
+      ? `Laminate: glue the layers with pins through the centre and index holes, so they line up as drilled; ${L(total)} thick in all. Put the template back on the same pins.`
+      : `Leave the template on, pinned through the centre and index holes.`,
+    `Mark the outline, the pocket and opening centres through the template; cut the outline with a jigsaw just outside the line and clean it to the line with a router following the pattern.`,
+    `Cut the pockets (${L(p.pocketDiameter)}, ${n} of them)${openings.length ? ` and the ${openings.length} access openings (${L(openings[0]!.diameter)})` : ''} through the whole panel, before any rabbet: the rabbeting bit's bearing follows the pocket's wall.`,
+    `Route each rabbet round its pocket in the top face with a rabbeting bit whose bearing rides the pocket's wall: ${L(p.rabbetWidth)} wide, ${L(p.rabbetDepth)} deep.`,
+    `Drill the ${plate.fasteners.length} pan-fastener holes (${L(p.fasteners.diameter)}) in the rabbet floors, ${p.fasteners.count} round each pocket.`,
+    rise > 0
+      ? `Fit the pans: set each pan crown up on the plate, its rim down in the rabbet and its body standing ${L(rise)} above the top face, and fasten the rim through the ${p.fasteners.count} holes.`
+      : `Fit the pans: set each flat pan in its rabbet, flush with the top face, and fasten it through the ${p.fasteners.count} holes.`,
+    `Bolt each caster under its pan's crown, up through the pocket, with each top plate square to its radial line (see the caster orientation on page 1).`,
     cw.count > 0 ? `Load the counterweight: ${cw.count} blocks through the access openings, laid flat inside the tube clear of the pans, locked in place.` : 'Counterweight: none entered; add blocks in the editor if the figures below ask for them.',
   ]
   steps.forEach((t, i) => page.para(`${i + 1}. ${t}`, 8.5))
