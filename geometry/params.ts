@@ -133,6 +133,8 @@ const baseSchema = z.object({
   casterCount: z.number().int().min(3).max(8).default(3),
   /** Plate centre to pocket centre (the caster's kingpin), mm. Default: the pans tucked just inside the default tube's outside wall. */
   casterOffset: length(20, 1500, 90.5),
+  /** How far inside the tube's outside face the pans' rims are kept, mm: room for a tube that is not quite round. Default 1.5 mm (about 1/16 in), common practice from memory. */
+  panTuck: length(0, inch(1), 1.5),
   /** Through-hole the pan drops into and the caster swivels in, mm: 1-1/2 to 16 in. Default a 4-1/4 in hole saw. */
   pocketDiameter: length(inch(1.5), inch(16), inch(4.25)),
   /** Width of the stepped ring round the pocket for the pan's rim, mm. */
