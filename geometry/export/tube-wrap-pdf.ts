@@ -204,6 +204,7 @@ export function planTubeWrap(plate: Plate, options: TubeWrapOptions): TubeWrap {
     drawBody: (ops) => drawWrapBody(ops, layout, plate, units),
     mapShapes: [strip],
     avoid: [{ shape: strip, weight: 1 }],
+    cutLines: [{ shape: strip, width: TEMPLATE_STYLES.cut.width }],
     legend,
     notes: [
       `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them.`,

@@ -73,6 +73,11 @@ describe('GET /api/revisions/:id/build-sheet.pdf', () => {
       expect(text).toContain(words)
     }
     expect(text).toMatch(/Scale 1:\d+ \([\d/-]+ in = 1 ft\)/)
+    // Plywood as the shop buys it: PS 1-19 category 23/32 is the retail "3/4 in" panel; two layers 46/32 = 1-7/16 in.
+    expect(text).toContain('23/32 in plywood (sold as 3/4 in)')
+    expect(text).toContain('1-7/16 in thick in all')
+    // Pockets before the rabbets a bearing bit follows.
+    expect(text.indexOf('Cut the pockets')).toBeLessThan(text.indexOf('Route each rabbet'))
     // 10.98 deg (REFERENCES worked value) to the sheet's one decimal.
     expect(text).toMatch(/Tipping angle \(worst direction\) 11\.0°/)
     // Steel 2 x 4 x 4 in blocks: about 9.1 lb each (REFERENCES: EN 1991-1-1 Table A.4, computed).
