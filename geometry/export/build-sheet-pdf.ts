@@ -1,4 +1,5 @@
-// The build sheet: two pages a carpenter works from. Page one draws the plate
+// The build sheet: two pages a carpenter works from (a page more where the
+// content runs on, never cut off at the foot). Page one draws the plate
 // to a stated scale with its main dimensions and the caster orientation;
 // page two lists the cut list, the hardware, the build steps in order and the
 // shop math with its cautions. Written in the reader's units.
@@ -97,12 +98,25 @@ export function scaleLabel(s: number, units: ExportUnits): string {
 
 class Page {
   y: number
+  /** Pages already filled before this one's content ran on (each written as its own PDF page). */
+  readonly filled: Ops[] = []
   constructor(
-    readonly ops: Ops,
+    public ops: Ops,
     readonly width: number,
     readonly height: number,
+    private readonly fresh: () => Ops = () => new Ops(null, FONT),
   ) {
     this.y = height - MARGIN
+  }
+
+  /** Makes room for `h` pt: past the foot of the page, the content runs on onto a new one. */
+  room(h: number): void {
+    if (this.y - h >= MARGIN) return
+    this.filled.push(this.ops)
+    this.ops = this.fresh()
+    this.y = this.height - MARGIN
+    this.ops.text('(continued)', this.width - MARGIN, this.y - 8, 8, { align: 'right', colour: COLOURS.muted })
+    this.y -= 16
   }
 
   /** Words wrapped to `width` pt; returns the lines. */
@@ -122,12 +136,15 @@ class Page {
 
   para(text: string, size = 8.5, x = MARGIN, width = this.width - 2 * MARGIN, colour: Rgb = COLOURS.ink): void {
     for (const l of this.wrap(text, size, width)) {
+      this.room(size * 1.3)
       this.ops.text(l, x, this.y - size, size, { colour })
       this.y -= size * 1.3
     }
   }
 
   heading(text: string, x = MARGIN): void {
+    // A heading never ends a page: it keeps room for a line or two after it.
+    this.room(50)
     this.y -= 6
     this.ops.text(text, x, this.y - 11, 11, { colour: COLOURS.accent })
     this.y -= 16
@@ -139,6 +156,7 @@ class Page {
     rows.forEach((row, r) => {
       const cells = row.map((cell, i) => this.wrap(cell, size, widths[i]!))
       const lines = Math.max(...cells.map((c) => c.length))
+      this.room(lines * size * 1.25 + 3)
       cells.forEach((c, i) => c.forEach((l, k) => this.ops.text(l, x + columns[i]!, this.y - size - k * size * 1.25, size, { colour: r === 0 ? COLOURS.muted : COLOURS.ink })))
       this.y -= lines * size * 1.25 + 3
       if (r === 0) {
@@ -153,7 +171,7 @@ function header(page: Page, meta: BuildSheetMeta, pageNo: number, units: ExportU
   ops.text('Build sheet', MARGIN, page.y - 16, 16, { colour: COLOURS.accent })
   const title = `${meta.designName}${meta.sizeLabel ? ` (${meta.sizeLabel})` : ''}`
   ops.text(title, MARGIN + 110, page.y - 16, 13)
-  ops.text(`Page ${pageNo} of 2`, width - MARGIN, page.y - 12, 8, { align: 'right', colour: COLOURS.muted })
+  ops.text(`Page ${pageNo}`, width - MARGIN, page.y - 12, 8, { align: 'right', colour: COLOURS.muted })
   page.y -= 30
   const line = `Revision r${meta.revision} · ${meta.date} · drawn by ${meta.author ?? 'unknown'} · sizes in ${units === 'in' ? 'inches' : 'millimetres'}${meta.note ? ` · ${meta.note}` : ''}`
   page.para(line, 8.5, MARGIN, width - 2 * MARGIN, COLOURS.muted)
@@ -386,7 +404,7 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   for (const c of STABILITY_CAUTIONS) page.para(c, 7.5, MARGIN, page.width - 2 * MARGIN, COLOURS.ink)
 }
 
-/** Two pages in the reader's units. */
+/** Two pages (or more, where the lists run on) in the reader's units. */
 export async function renderBuildSheetPdf(plate: Plate, options: BuildSheetOptions): Promise<Uint8Array> {
   const u = options.units
   const analysis = analyseUnit(plate, undefined, {
@@ -402,11 +420,13 @@ export async function renderBuildSheetPdf(plate: Plate, options: BuildSheetOptio
   doc.setProducer('Rootplate')
   const [pw, ph] = PAGES[options.paper ?? (u === 'in' ? 'letter' : 'a4')]
   for (const draw of [firstPage, secondPage]) {
-    const pdfPage = doc.addPage([pw, ph])
-    const page = new Page(new Ops(font, FONT), pw, ph)
+    const page = new Page(new Ops(font, FONT), pw, ph, () => new Ops(font, FONT))
     draw(page, plate, analysis, options)
-    pdfPage.node.addContentStream(doc.context.register(doc.context.flateStream(page.ops.toString())))
-    pdfPage.node.setFontDictionary(PDFName.of(FONT), font.ref)
+    for (const ops of [...page.filled, page.ops]) {
+      const pdfPage = doc.addPage([pw, ph])
+      pdfPage.node.addContentStream(doc.context.register(doc.context.flateStream(ops.toString())))
+      pdfPage.node.setFontDictionary(PDFName.of(FONT), font.ref)
+    }
   }
   return doc.save()
 }

@@ -57,13 +57,14 @@ describe('GET /api/revisions/:id/build-sheet.pdf', () => {
     expect(r.body.params.unit.counterweight).toMatchObject({ material: 'steel', count: 2 })
   })
 
-  it('in inches: two Letter pages (612 x 792 pt, ASME Y14.1) with the drawing, lists, steps, figures and cautions', async () => {
+  it('in inches: Letter pages (612 x 792 pt, ASME Y14.1) with the drawing, lists, steps, figures and cautions', async () => {
     const res = await download(`/api/revisions/${revisionId}/build-sheet.pdf?units=in`, builder)
     expect(res.status).toBe(200)
     expect(res.type).toContain('application/pdf')
     expect(res.disposition).toMatch(/filename="build-sheet-check-stump-r1-build-sheet\.pdf"/)
     const doc = await PDFDocument.load(res.bytes)
-    expect(doc.getPageCount()).toBe(2)
+    // Two pages, or more where the lists run on (never cut off at the foot).
+    expect(doc.getPageCount()).toBeGreaterThanOrEqual(2)
     for (const page of doc.getPages()) {
       expect(page.getWidth()).toBeCloseTo(612, 1)
       expect(page.getHeight()).toBeCloseTo(792, 1)
@@ -86,11 +87,12 @@ describe('GET /api/revisions/:id/build-sheet.pdf', () => {
     expect(text).toMatch(/Problem: Each caster may carry/)
   })
 
-  it('in millimetres: two A4 pages (595.28 x 841.89 pt, ISO 216), sizes in mm and kg', async () => {
+  it('in millimetres: A4 pages (595.28 x 841.89 pt, ISO 216), sizes in mm and kg', async () => {
     const res = await download(`/api/revisions/${revisionId}/build-sheet.pdf?units=mm`, builder)
     expect(res.status).toBe(200)
     const doc = await PDFDocument.load(res.bytes)
-    expect(doc.getPageCount()).toBe(2)
+    // Two pages, or more where the lists run on (never cut off at the foot).
+    expect(doc.getPageCount()).toBeGreaterThanOrEqual(2)
     expect(doc.getPage(0).getWidth()).toBeCloseTo(595.28, 1)
     expect(doc.getPage(0).getHeight()).toBeCloseTo(841.89, 1)
     const text = pdfText(res.bytes, 'build-sheet-mm')

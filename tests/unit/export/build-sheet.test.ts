@@ -126,6 +126,21 @@ describe('steps a carpenter can follow', () => {
     expect(flat).toContain('set each flat pan in its rabbet, flush with the top face')
   })
 
+  it('a long sheet runs on to another page rather than losing its cautions off the foot', async () => {
+    // Four casters, a 5000 kg load at 36 in, two blocks through 2 in openings: many findings on page 2.
+    const IN_ = 25.4
+    const text = await sheetText({
+      tubeDiameter: 700, casterCount: 4, casterOffset: 12 * IN_, pocketDiameter: 100,
+      caster: { swivelLead: 1.5 * IN_ }, lobes: { irregularity: 0 },
+      unit: { load: { weight: 5000, height: 36 * IN_ }, hardwarePerCaster: 0, casterRating: 500, counterweight: { count: 2 } },
+    }, 'in', 'build-sheet-long')
+    expect(text).toContain('Cautions')
+    expect(text).toContain('IEC 62368-1')
+    expect(text).toMatch(/Steel counterweight is heavy/)
+    // Every line of the last caution is there, to its last words.
+    expect(text).toMatch(/take the blocks out before the unit is tipped, carried or stored/)
+  })
+
   it('renders page 1 and 2 to PNG with pdftoppm (look at test-results/unit/build-sheet-default-in-*.png)', () => {
     execFileSync('/usr/bin/pdftoppm', ['-png', '-r', '70', `${shots}/build-sheet-default-in.pdf`, `${shots}/build-sheet-default-in`])
   })
