@@ -105,6 +105,8 @@ class Page {
     readonly width: number,
     readonly height: number,
     private readonly fresh: () => Ops = () => new Ops(null, FONT),
+    /** Written at the top of a page the content runs on to. */
+    private readonly continued = '(continued)',
   ) {
     this.y = height - MARGIN
   }
@@ -115,7 +117,7 @@ class Page {
     this.filled.push(this.ops)
     this.ops = this.fresh()
     this.y = this.height - MARGIN
-    this.ops.text('(continued)', this.width - MARGIN, this.y - 8, 8, { align: 'right', colour: COLOURS.muted })
+    this.ops.text(this.continued, this.width - MARGIN, this.y - 8, 8, { align: 'right', colour: COLOURS.muted })
     this.y -= 16
   }
 
@@ -420,7 +422,8 @@ export async function renderBuildSheetPdf(plate: Plate, options: BuildSheetOptio
   doc.setProducer('Rootplate')
   const [pw, ph] = PAGES[options.paper ?? (u === 'in' ? 'letter' : 'a4')]
   for (const draw of [firstPage, secondPage]) {
-    const page = new Page(new Ops(font, FONT), pw, ph, () => new Ops(font, FONT))
+    const m = options.meta
+    const page = new Page(new Ops(font, FONT), pw, ph, () => new Ops(font, FONT), `${m.designName} · revision r${m.revision} · build sheet, continued`)
     draw(page, plate, analysis, options)
     for (const ops of [...page.filled, page.ops]) {
       const pdfPage = doc.addPage([pw, ph])
