@@ -157,6 +157,8 @@ const baseSchema = z.object({
   casterCount: z.number().int().min(3).max(8).default(3),
   /** Plate centre to pocket centre (the caster's kingpin), mm. Default: the pans tucked just inside the default tube's outside wall. */
   casterOffset: length(20, 1500, 90.5),
+  /** How far inside the tube's outside face the pans' rims are kept, mm: room for a tube that is not quite round. Default 1.5 mm (about 1/16 in), common practice from memory. */
+  panTuck: length(0, inch(1), 1.5),
   /** Through-hole the pan drops into and the caster swivels in, mm: 1-1/2 to 16 in. Default a 4-1/4 in hole saw. */
   pocketDiameter: length(inch(1.5), inch(16), inch(4.25)),
   /** Width of the stepped ring round the pocket for the pan's rim, mm. */
@@ -180,8 +182,8 @@ const baseSchema = z.object({
   minWood: length(3, 100, inch(0.75)),
   /** Glued plywood layers. */
   layers: z.number().int().min(1).max(4).default(2),
-  /** One sheet's actual thickness, mm. Default: a "3/4 in" panel labelled 0.703 in (PS 1-19, performance category 23/32). */
-  sheetThickness: length(3, 40, inch(0.703)),
+  /** One sheet's actual thickness, mm. Default: plywood as the shop buys it, 23/32 in, sold as "3/4 in" (PS 1-19 performance category 23/32, 0.688-0.750 in). */
+  sheetThickness: length(3, 40, inch(23 / 32)),
   /** Least acceptable gap between the plate's underside and the floor, mm: clears floor joints, tape and cable covers. Default 1/4 in (from memory). */
   minFloorGap: length(0, 100, inch(0.25)),
   /** What stands on the plate (load, counterweight, caster rating, push to check); see geometry/stability. */

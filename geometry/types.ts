@@ -73,8 +73,12 @@ export interface TubeNotch {
   width: number
   /** Distance along the unrolled outside circumference from the clocking axis to the notch centre. */
   offsetAlongWrap: number
-  /** How high the notch is cut, mm above the plate's top face: the pan's rise plus a clearance. */
+  /** How high the notch is cut at its highest, mm above the plate's top face: over a pan's body its rise plus a clearance, over a rim alone the rim's relief. */
   height: number
+  /** Height over the stretch where only the rim lies under the wall, mm. */
+  rimHeight: number
+  /** The middle stretch where the pan's body lies under the wall (cut to `height`), centred on `angle`; null when only the rim does. */
+  body: { span: number; width: number } | null
 }
 
 /** A lobe tip, for drawing handles and for per-lobe overrides. */

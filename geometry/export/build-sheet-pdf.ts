@@ -1,4 +1,5 @@
-// The build sheet: two pages a carpenter works from. Page one draws the plate
+// The build sheet: two pages a carpenter works from (a page more where the
+// content runs on, never cut off at the foot). Page one draws the plate
 // to a stated scale with its main dimensions and the caster orientation;
 // page two lists the cut list, the hardware, the build steps in order and the
 // shop math with its cautions. Written in the reader's units.
@@ -6,6 +7,7 @@
 import fontkit from '@pdf-lib/fontkit'
 import { PDFDocument, PDFName, type PDFFont } from 'pdf-lib'
 import type { Plate, Point } from '../types'
+import type { PlateParams } from '../params'
 import { MM_PER_INCH, formatInches, formatMillimetres } from '../units'
 import { analyseUnit, type UnitAnalysis } from '../stability/analyse'
 import { COUNTERWEIGHT_MATERIALS } from '../stability/unit-params'
@@ -18,9 +20,43 @@ import { savedErrors, savedErrorsLine } from './plate-notes'
 
 const FONT = 'F1'
 
-/** A length as the carpenter measures it: inches to the nearest 1/16 (a tape's marks), millimetres to the nearest 1. */
+/**
+ * A length as the carpenter measures it: inches to the nearest 1/16 (a tape's
+ * marks), and to the nearest 1/32 below an inch, where a sheet's thickness, a
+ * rabbet's depth or a drill's size is read (23/32 in is not 3/4 in);
+ * millimetres to the nearest 1, and to 0.5 below 25 mm.
+ */
 export function sheetLength(mm: number, units: ExportUnits): string {
-  return units === 'in' ? formatInches(mm, { denominator: 16 }).replace(/"$/, ' in') : formatMillimetres(mm, { step: 1 })
+  const small = Math.abs(mm) < MM_PER_INCH - MM_PER_INCH / 64
+  if (units === 'in') return formatInches(mm, { denominator: small ? 32 : 16 }).replace(/"$/, ' in')
+  return formatMillimetres(mm, { step: small ? 0.5 : 1 })
+}
+
+/**
+ * Retail names of the plywood performance categories of PS 1-19: a panel is
+ * sold by a nominal size thicker than it is. 23/32 for "3/4 in" is in
+ * REFERENCES (0.688-0.750 in); the other pairs are from memory.
+ */
+const SOLD_AS: readonly { category: number; sold: string; min: number; max: number }[] = [
+  { category: 23 / 32, sold: '3/4 in', min: 0.688, max: 0.75 },
+  { category: 19 / 32, sold: '5/8 in', min: 0.563, max: 0.625 },
+  { category: 15 / 32, sold: '1/2 in', min: 0.438, max: 0.5 },
+  { category: 11 / 32, sold: '3/8 in', min: 0.313, max: 0.375 },
+]
+
+/** One sheet of plywood as the shop buys it: `23/32 in plywood (sold as 3/4 in)`. */
+export function plywoodName(mm: number, units: ExportUnits): string {
+  const inches = mm / MM_PER_INCH
+  const cat = SOLD_AS.find((c) => inches >= c.min - 1e-6 && inches <= c.max + 1e-6)
+  if (!cat) return `${sheetLength(mm, units)} plywood`
+  return units === 'in'
+    ? `${sheetLength(mm, 'in')} plywood (sold as ${cat.sold})`
+    : `${sheetLength(mm, 'mm')} plywood (sold as ${cat.sold}, category ${sheetLength(cat.category * MM_PER_INCH, 'in')})`
+}
+
+/** Trim left all round a plate's blank for the saw and the router to clean the edge to the line: 1/2 in or 12 mm (common shop practice, from memory). */
+export function blankAllowance(units: ExportUnits): number {
+  return units === 'in' ? MM_PER_INCH / 2 : 12
 }
 
 export interface BuildSheetMeta {
@@ -63,12 +99,27 @@ export function scaleLabel(s: number, units: ExportUnits): string {
 
 class Page {
   y: number
+  /** Pages already filled before this one's content ran on (each written as its own PDF page). */
+  readonly filled: Ops[] = []
   constructor(
-    readonly ops: Ops,
+    public ops: Ops,
     readonly width: number,
     readonly height: number,
+    private readonly fresh: () => Ops = () => new Ops(null, FONT),
+    /** Written at the top of a page the content runs on to. */
+    private readonly continued = '(continued)',
   ) {
     this.y = height - MARGIN
+  }
+
+  /** Makes room for `h` pt: past the foot of the page, the content runs on onto a new one. */
+  room(h: number): void {
+    if (this.y - h >= MARGIN) return
+    this.filled.push(this.ops)
+    this.ops = this.fresh()
+    this.y = this.height - MARGIN
+    this.ops.text(this.continued, this.width - MARGIN, this.y - 8, 8, { align: 'right', colour: COLOURS.muted })
+    this.y -= 16
   }
 
   /** Words wrapped to `width` pt; returns the lines. */
@@ -88,12 +139,15 @@ class Page {
 
   para(text: string, size = 8.5, x = MARGIN, width = this.width - 2 * MARGIN, colour: Rgb = COLOURS.ink): void {
     for (const l of this.wrap(text, size, width)) {
+      this.room(size * 1.3)
       this.ops.text(l, x, this.y - size, size, { colour })
       this.y -= size * 1.3
     }
   }
 
   heading(text: string, x = MARGIN): void {
+    // A heading never ends a page: it keeps room for a line or two after it.
+    this.room(50)
     this.y -= 6
     this.ops.text(text, x, this.y - 11, 11, { colour: COLOURS.accent })
     this.y -= 16
@@ -105,6 +159,7 @@ class Page {
     rows.forEach((row, r) => {
       const cells = row.map((cell, i) => this.wrap(cell, size, widths[i]!))
       const lines = Math.max(...cells.map((c) => c.length))
+      this.room(lines * size * 1.25 + 3)
       cells.forEach((c, i) => c.forEach((l, k) => this.ops.text(l, x + columns[i]!, this.y - size - k * size * 1.25, size, { colour: r === 0 ? COLOURS.muted : COLOURS.ink })))
       this.y -= lines * size * 1.25 + 3
       if (r === 0) {
@@ -119,7 +174,7 @@ function header(page: Page, meta: BuildSheetMeta, pageNo: number, units: ExportU
   ops.text('Build sheet', MARGIN, page.y - 16, 16, { colour: COLOURS.accent })
   const title = `${meta.designName}${meta.sizeLabel ? ` (${meta.sizeLabel})` : ''}`
   ops.text(title, MARGIN + 110, page.y - 16, 13)
-  ops.text(`Page ${pageNo} of 2`, width - MARGIN, page.y - 12, 8, { align: 'right', colour: COLOURS.muted })
+  ops.text(`Page ${pageNo}`, width - MARGIN, page.y - 12, 8, { align: 'right', colour: COLOURS.muted })
   page.y -= 30
   const line = `Revision r${meta.revision} · ${meta.date} · drawn by ${meta.author ?? 'unknown'} · sizes in ${units === 'in' ? 'inches' : 'millimetres'}${meta.note ? ` · ${meta.note}` : ''}`
   page.para(line, 8.5, MARGIN, width - 2 * MARGIN, COLOURS.muted)
@@ -243,6 +298,7 @@ function firstPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptio
   header(page, o.meta, 1, o.units, savedErrors(plate, o.units))
   const L = (mm: number) => sheetLength(mm, o.units)
   const p = plate.params
+  const total = p.layers * p.sheetThickness
   const drawH = page.y - MARGIN - 250
   drawPlate(page, plate, a, o.units, { x: MARGIN, y: page.y - drawH, w: page.width - 2 * MARGIN, h: drawH })
   page.y -= drawH + 8
@@ -259,11 +315,18 @@ function firstPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptio
     ['Pockets', `${L(p.pocketDiameter)}, rabbet ${L(p.rabbetWidth)} wide × ${L(p.rabbetDepth)} deep`],
     ['Access openings', access ? `${plate.holes.filter((h) => h.kind === 'access').length} × ${L(access.diameter)} at ${L(Math.hypot(access.x, access.y))} from centre` : 'none'],
     ['Centre and index holes', `${L(p.centreHoleDiameter)}; ${index.length} × ${L(p.indexHoleDiameter)} on the clocking axis`],
-    ['Thickness, floor gap', `${L(plate.metrics.thickness)}, ${L(plate.metrics.floorGap)}`],
+    ['Thickness, floor gap', `${L(total)} (${p.layers} × ${L(p.sheetThickness)}), ${L(plate.metrics.floorGap)}`],
   ], [0, 130], 8, MARGIN)
   page.y -= 4
   page.para('Drawing: outline (green), rabbets (amber), holes, caster top plates (blue), trunk (dashed), counterweight blocks (shaded), centre of mass (cross) and the tipping line (red, dashed).', 7.5, MARGIN, colW - 10, COLOURS.muted)
   casterDiagram(page, plate, { x: MARGIN + colW + 10, y: MARGIN, w: colW - 10, h: top - MARGIN })
+}
+
+/** The pan fasteners in the carpenter's words, by kind. */
+function fastenerWords(f: PlateParams['fasteners'], L: (mm: number) => string): string {
+  if (f.kind === 'screw') return `${L(f.diameter)} wood screws into the rabbet floor, ${L(f.length)} below the rim, no hole through the bottom layer`
+  if (f.kind === 'bolt-tnut') return `${L(f.diameter)} bolts through both layers into T-nuts in the underside`
+  return `${L(f.diameter)} bolts through both layers, nuts in ${L(f.counterboreDiameter)} counterbores ${L(f.counterboreDepth)} deep from the underside`
 }
 
 function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOptions): void {
@@ -278,14 +341,19 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   const w = plate.metrics.width
   const h = plate.metrics.height
 
+  // One total thickness, worked out once and printed the same everywhere.
+  const total = p.layers * p.sheetThickness
+  const allow = blankAllowance(u)
+  const blank = `${L(w + 2 * allow)} × ${L(h + 2 * allow)}`
   page.heading('Cut list')
   const layers = Array.from({ length: p.layers }, (_, i) => [
     `Layer ${i + 1}${i === 0 ? ' (top)' : i === p.layers - 1 ? ' (bottom)' : ''}`,
-    `plywood, ${L(p.sheetThickness)} thick`,
-    `${L(w)} × ${L(h)} blank`,
+    plywoodName(p.sheetThickness, u),
+    blank,
     i === 0 ? `outline, ${n} pockets with rabbets, openings, centre and index holes` : 'outline, pockets, openings, centre and index holes; no rabbet',
   ])
-  page.table([['layer', 'sheet', 'size', 'cuts'], ...layers], [0, 90, 210, 330])
+  page.table([['layer', 'sheet', 'blank', 'cuts'], ...layers], [0, 80, 215, 330])
+  page.para(`Each blank is the plate's overall ${L(w)} × ${L(h)} plus ${L(allow)} all round for the saw and the router (common practice). Glued up: ${p.layers} layer${p.layers === 1 ? '' : 's'}, ${L(total)} thick in all.`, 8, MARGIN, page.width - 2 * MARGIN, COLOURS.muted)
 
   page.heading('Hardware')
   const cw = a.unit.counterweight
@@ -297,21 +365,34 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   const rows = [
     ['item', 'count', 'size'],
     ['Swivel casters', `${n}`, `${L(p.caster.wheelDiameter)} wheel, ${L(p.caster.overallHeight)} tall, swivel lead ${L(p.caster.swivelLead)}, rated ${a.casterRating !== null ? `${M(a.casterRating)} each (maker's figure)` : `________ ${u === 'in' ? 'lb' : 'kg'} each (fill in the maker's rating)`}`],
-    ['Pans', `${n}`, `rim to fit a ${L(p.pocketDiameter + 2 * p.rabbetWidth)} rabbet, ${L(p.panDepth)} deep, over a ${L(p.pocketDiameter)} pocket`],
-    ['Pan fasteners', `${plate.fasteners.length}`, `${p.fasteners.count} per pan, ${L(p.fasteners.diameter)} holes drilled through the rabbet floor${rimCircle ? ` on a ${L(rimCircle)} circle` : ''} (${L(p.rabbetDepth)} below the top face)`],
+    ['Pans', `${n}`, `rim to fit a ${L(p.pocketDiameter + 2 * p.rabbetWidth)} rabbet, ${L(p.panDepth)} from the rim's underside to the crown, over a ${L(p.pocketDiameter)} pocket`],
+    ['Pan fasteners', `${plate.fasteners.length}`, `${p.fasteners.count} per pan, ${fastenerWords(p.fasteners, L)}${rimCircle ? ` on a ${L(rimCircle)} circle` : ''} (the rabbet floor is ${L(p.rabbetDepth)} below the top face)`],
     ['Caster bolts, nuts, washers', `${n * bolts}`, `${L(p.caster.boltDiameter)}, on ${L(p.caster.boltSpacingX)} × ${L(p.caster.boltSpacingY)} centres`],
     ['Counterweight blocks', `${cw.count}`, `${COUNTERWEIGHT_MATERIALS[cw.material].label.toLowerCase()} ${L(cw.block.length)} × ${L(cw.block.width)} × ${L(cw.block.thickness)}, ${M(a.block.mass)} each, ${M(cw.count * a.block.mass)} in all`],
   ]
   page.table(rows, [0, 150, 200])
 
   page.heading('Build steps')
+  const rise = Math.max(0, p.panDepth - p.rabbetDepth)
+  const openings = plate.holes.filter((x) => x.kind === 'access')
   const steps = [
-    `Laminate: glue ${p.layers} sheets of ${L(p.sheetThickness)} plywood into one panel; register the layers on the centre and index holes.`,
-    `Cut the outline with a jigsaw just outside the line; clean it with a router following the pattern.`,
-    `Route the rabbets in the top layer: ${L(p.rabbetWidth)} wide, ${L(p.rabbetDepth)} deep round each pocket.`,
-    `Drill and saw: pockets ${L(p.pocketDiameter)}, access openings, centre hole ${L(p.centreHoleDiameter)}, index holes ${L(p.indexHoleDiameter)}, ${plate.fasteners.length} pan-fastener holes ${L(p.fasteners.diameter)} through the rabbet floors.`,
-    `Fit the pans: drop each through its pocket, rim in the rabbet, and bolt the rim through the ${p.fasteners.count} holes round each pocket.`,
-    `Fit the casters to the pans' crowns with each top plate square to its radial line (see the caster orientation on page 1).`,
+    `Cut ${p.layers} blank${p.layers === 1 ? '' : 's'} of ${blank} from ${plywoodName(p.sheetThickness, u)}.`,
+    p.layers > 1
+      ? `Stack the blanks, the top layer's good face up, tape the template on top and drill the centre hole (${L(p.centreHoleDiameter)}) and the index holes (${L(p.indexHoleDiameter)}) through the template and every layer, before the layers part: these holes register them.`
+      : `Tape the template on the blank, good face up, and drill the centre hole (${L(p.centreHoleDiameter)}) and the index holes (${L(p.indexHoleDiameter)}) through the template.`,
+    p.layers > 1
+      ? `Laminate: glue the layers with pins through the centre and index holes, so they line up as drilled; ${L(total)} thick in all. Put the template back on the same pins.`
+      : `Leave the template on, pinned through the centre and index holes.`,
+    `Mark the outline, the pocket and opening centres through the template; cut the outline with a jigsaw just outside the line and clean it to the line with a router following the pattern.`,
+    `Cut the pockets (${L(p.pocketDiameter)}, ${n} of them)${openings.length ? ` and the ${openings.length} access openings (${L(openings[0]!.diameter)})` : ''} through the whole panel, before any rabbet: the rabbeting bit's bearing follows the pocket's wall.`,
+    `Route each rabbet round its pocket in the top face with a rabbeting bit whose bearing rides the pocket's wall: ${L(p.rabbetWidth)} wide, ${L(p.rabbetDepth)} deep.`,
+    p.fasteners.kind === 'screw'
+      ? `Drill pilot holes for the ${plate.fasteners.length} pan screws (${L(p.fasteners.diameter)}) in the rabbet floors, ${p.fasteners.count} round each pocket, no deeper than ${L(p.fasteners.length)}: nothing goes through the bottom layer.`
+      : `Drill the ${plate.fasteners.length} pan-bolt holes (${L(p.fasteners.diameter)}) through the rabbet floors and the bottom layer, ${p.fasteners.count} round each pocket${p.fasteners.kind === 'bolt-counterbore' ? `, and counterbore them from the underside ${L(p.fasteners.counterboreDiameter)} across, ${L(p.fasteners.counterboreDepth)} deep` : ', and drive a T-nut into each from the underside'}.`,
+    rise > 0
+      ? `Fit the pans: set each pan crown up on the plate, its rim down in the rabbet and its body standing ${L(rise)} above the top face, and fasten the rim through the ${p.fasteners.count} holes.`
+      : `Fit the pans: set each flat pan in its rabbet, flush with the top face, and fasten it through the ${p.fasteners.count} holes.`,
+    `Bolt each caster under its pan's crown, up through the pocket, with each top plate square to its radial line (see the caster orientation on page 1).`,
     cw.count > 0 ? `Load the counterweight: ${cw.count} blocks through the access openings, laid flat inside the tube clear of the pans, locked in place.` : 'Counterweight: none entered; add blocks in the editor if the figures below ask for them.',
   ]
   steps.forEach((t, i) => page.para(`${i + 1}. ${t}`, 8.5))
@@ -337,7 +418,7 @@ function secondPage(page: Page, plate: Plate, a: UnitAnalysis, o: BuildSheetOpti
   for (const c of STABILITY_CAUTIONS) page.para(c, 7.5, MARGIN, page.width - 2 * MARGIN, COLOURS.ink)
 }
 
-/** Two pages in the reader's units. */
+/** Two pages (or more, where the lists run on) in the reader's units. */
 export async function renderBuildSheetPdf(plate: Plate, options: BuildSheetOptions): Promise<Uint8Array> {
   const u = options.units
   const analysis = analyseUnit(plate, undefined, {
@@ -353,11 +434,14 @@ export async function renderBuildSheetPdf(plate: Plate, options: BuildSheetOptio
   doc.setProducer('Rootplate')
   const [pw, ph] = PAGES[options.paper ?? (u === 'in' ? 'letter' : 'a4')]
   for (const draw of [firstPage, secondPage]) {
-    const pdfPage = doc.addPage([pw, ph])
-    const page = new Page(new Ops(font, FONT), pw, ph)
+    const m = options.meta
+    const page = new Page(new Ops(font, FONT), pw, ph, () => new Ops(font, FONT), `${m.designName} · revision r${m.revision} · build sheet, continued`)
     draw(page, plate, analysis, options)
-    pdfPage.node.addContentStream(doc.context.register(doc.context.flateStream(page.ops.toString())))
-    pdfPage.node.setFontDictionary(PDFName.of(FONT), font.ref)
+    for (const ops of [...page.filled, page.ops]) {
+      const pdfPage = doc.addPage([pw, ph])
+      pdfPage.node.addContentStream(doc.context.register(doc.context.flateStream(ops.toString())))
+      pdfPage.node.setFontDictionary(PDFName.of(FONT), font.ref)
+    }
   }
   return doc.save()
 }

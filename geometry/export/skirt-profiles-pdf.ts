@@ -10,7 +10,7 @@ import { COLOURS } from './pdf-ops'
 import { renderTiledPdf, type TemplateMeta, type TiledDrawing } from './tiled-pdf'
 import { boundsOf, DEFAULT_PAD, tileContent, type Orientation, type PaperName, type Tiling } from './tiling'
 import { TEMPLATE_STYLES } from './template-pdf'
-import { assertExportUnits, formatShopLength, type ExportUnits } from './units'
+import { assertExportUnits, formatTapeLength, type ExportUnits } from './units'
 import { SKIRT_STYLE } from './skirt-marks'
 
 export interface SkirtProfileOptions {
@@ -88,7 +88,7 @@ export function planSkirtProfiles(plate: Plate, options: SkirtProfileOptions): {
     ...(options.margin !== undefined ? { margin: options.margin } : {}),
     ...(options.overlap !== undefined ? { overlap: options.overlap } : {}),
   })
-  const len = (mm: number) => formatShopLength(mm, units)
+  const len = (mm: number) => formatTapeLength(mm, units)
   const drawing: TiledDrawing = {
     title: 'Skirt rib profiles',
     content,

@@ -11,6 +11,7 @@ import { renderTiledPdf, type LegendEntry, type TemplateMeta, type TiledDrawing 
 import { boundsOf, DEFAULT_PAD, tileContent, type Orientation, type PaperName, type Tiling } from './tiling'
 import { savedErrorsAlert, TEMPLATE_STYLES } from './template-pdf'
 import { MM_PER_INCH } from '../units'
+import { RIM_RELIEF } from '../features/casters'
 import { assertExportUnits, formatTapeLength, type ExportUnits } from './units'
 
 export interface TubeWrapOptions {
@@ -44,6 +45,12 @@ export interface WrapNotch {
   spans: [number, number][]
   centre: number
   width: number
+  /** Cut height over the middle (the pan's body, or the whole notch when only a rim lies under the wall), mm. */
+  height: number
+  /** Cut height at the sides, where only the rim lies under the wall, mm. */
+  rimHeight: number
+  /** Width of the full-height middle, mm (the whole width when the notch is one height). */
+  bodyWidth: number
 }
 
 export interface TubeWrapLayout {
@@ -77,32 +84,54 @@ export function tubeWrapLayout(plate: Plate, options: Pick<TubeWrapOptions, 'hei
     if (a < 0) spans.push([0, b], [a + circumference, circumference])
     else if (b > circumference) spans.push([a, circumference], [0, b - circumference])
     else spans.push([a, b])
-    return { pocketId: n.pocketId, spans, centre: c, width: n.width }
+    const h = Math.min(height, options.notchHeight ?? n.height)
+    const body = n.body === undefined ? { width: n.width } : n.body
+    return {
+      pocketId: n.pocketId,
+      spans,
+      centre: c,
+      width: n.width,
+      height: h,
+      rimHeight: body && options.notchHeight === undefined ? Math.min(h, n.rimHeight ?? h) : h,
+      bodyWidth: body ? Math.min(n.width, body.width) : n.width,
+    }
   })
   return { circumference, height, notchHeight, tab, notches }
 }
 
 function drawWrapBody(ops: Ops, layout: TubeWrapLayout, plate: Plate, units: ExportUnits): void {
-  const { circumference: C, height: H, notchHeight: NH, tab } = layout
+  const { circumference: C, height: H, tab } = layout
   // Marks are measured with a tape round the tube: fractions, not decimals.
   const len = (mm: number) => formatTapeLength(mm, units)
   const S = TEMPLATE_STYLES
 
-  // The glue tab repeats the start of the strip, so its notch parts repeat too.
+  // Each notch as cut: the rim's low relief at the sides, the pan body's full height in the middle. Drawn
+  // at its centre and a turn either way, clipped to the strip and its glue tab, so a notch across the seam
+  // shows its parts at both ends and the tab repeats the start.
   for (const n of layout.notches) {
-    const spans = [...n.spans, ...n.spans.filter(([a]) => a < tab).map(([a, b]) => [a + C, Math.min(b, tab) + C] as [number, number])]
-    for (const [a, b] of spans) {
-      ops.fillColour(COLOURS.warnTint).rect(a, 0, b - a, NH).fill()
-      ops.style({ colour: COLOURS.notch, width: 0.6 }).moveTo(a, 0).lineTo(a, NH).lineTo(b, NH).lineTo(b, 0).stroke()
+    const half = n.width / 2
+    const mid = n.bodyWidth / 2
+    const profile = (c: number): Point[] => n.bodyWidth < n.width - 1e-6 && n.rimHeight < n.height
+      ? [[c - half, 0], [c - half, n.rimHeight], [c - mid, n.rimHeight], [c - mid, n.height], [c + mid, n.height], [c + mid, n.rimHeight], [c + half, n.rimHeight], [c + half, 0]]
+      : [[c - half, 0], [c - half, n.height], [c + half, n.height], [c + half, 0]]
+    ops.save().rect(0, 0, C + tab, H).clip()
+    for (const c of [n.centre - C, n.centre, n.centre + C]) {
+      const pts = profile(c)
+      ops.fillColour(COLOURS.warnTint).polygon(pts).fill()
+      ops.style({ colour: COLOURS.notch, width: 0.6 }).polygon(pts, false).stroke()
     }
-    ops.style(S.centre).line(n.centre, 0, n.centre, NH + 6).stroke()
+    ops.restore()
+    ops.style(S.centre).line(n.centre, 0, n.centre, n.height + 6).stroke()
     const pocket = n.pocketId.replace(/^pocket-(\d+)$/, (_, i: string) => `pocket ${Number(i) + 1}`)
     // A notch split by the index line is labelled on each part, the text kept on the strip.
     for (const [a, b] of n.spans) {
       const align = a <= 0 ? 'left' : b >= C ? 'right' : 'center'
       const x = align === 'left' ? a + 2 : align === 'right' ? b - 2 : (a + b) / 2
-      ops.text(`notch over ${pocket}`, x, NH + 12, 3.2, { align, colour: COLOURS.notch })
-      ops.text(`${len(n.width)} wide, ${len(NH)} high, centre ${len(n.centre)} from the index line`, x, NH + 7.5, 2.6, {
+      ops.text(`notch over ${pocket}`, x, n.height + 12, 3.2, { align, colour: COLOURS.notch })
+      const size = n.bodyWidth < n.width - 1e-6 && n.rimHeight < n.height
+        ? `${len(n.width)} wide, ${len(n.rimHeight)} high over the rim, ${len(n.bodyWidth)} of it ${len(n.height)} high over the pan`
+        : `${len(n.width)} wide, ${len(n.height)} high`
+      ops.text(`${size}, centre ${len(n.centre)} from the index line`, x, n.height + 7.5, 2.6, {
         align,
         colour: COLOURS.muted,
       })
@@ -175,10 +204,11 @@ export function planTubeWrap(plate: Plate, options: TubeWrapOptions): TubeWrap {
     drawBody: (ops) => drawWrapBody(ops, layout, plate, units),
     mapShapes: [strip],
     avoid: [{ shape: strip, weight: 1 }],
+    cutLines: [{ shape: strip, width: TEMPLATE_STYLES.cut.width }],
     legend,
     notes: [
       `Wrap the strip round the foot of the tube, printed side out, bottom edge on the plate, the index line on the tube's clocking mark. Mark the notches and cut them.`,
-      `Each notch is ${formatTapeLength(layout.notchHeight, units)} high: how far the pan rises above the plate, plus a clearance for its crown and the caster's nuts. It follows from the pan depth and the rabbet depth set in the editor; change those to change it.`,
+      `Notches are cut only where a pan or its rim lies under the tube wall, as high as what is under it: over a pan's body, how far the pan rises above the plate plus a clearance for its crown and the caster's nuts (${formatTapeLength(layout.notchHeight, units)} at most here); where only the flush rim lies under the wall, a ${formatTapeLength(RIM_RELIEF, units)} relief over its fastener heads. They follow from the caster offset, the pan depth and the rabbet depth set in the editor; change those to change them.`,
       `Tube ${formatTapeLength(plate.trunk.diameter, units)} outside, circumference ${formatTapeLength(layout.circumference, units)}; ${layout.notches.length} notch${layout.notches.length === 1 ? '' : 'es'}, one over each pocket.`,
     ],
     ...savedErrorsAlert(plate, units),

@@ -67,6 +67,7 @@ export function formatShopLength(mm: number, units: ExportUnits, withUnit = true
  * against; 1/32 in is under 1 mm, finer than a pencil line.
  */
 export function formatTapeLength(mm: number, units: ExportUnits, withUnit = true): string {
+  if (!Number.isFinite(mm)) return '?'
   if (units === 'mm') {
     const text = String(Math.round(mm * 2) / 2)
     return withUnit ? `${text} mm` : text

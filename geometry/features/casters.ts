@@ -39,6 +39,14 @@ export function casterMounts(params: PlateParams, pockets: readonly Hole[]): Cas
  */
 export const NOTCH_CLEARANCE = 12.7
 
+/**
+ * Height of a notch where only a pan's rim lies under the tube wall, mm: the
+ * rim sits flush in its rabbet (the rabbet depth is set to the rim), so what
+ * stands up there is the heads of the rim's fasteners and a rim not quite
+ * flush. 1/8 in, common practice from memory.
+ */
+export const RIM_RELIEF = 3.175
+
 /** How far the pan stands above the plate's top face, mm: from the rabbet floor up to the crown's underside, less the rabbet's depth. */
 export function panRise(params: PlateParams): number {
   return Math.max(0, params.panDepth - params.rabbetDepth)
@@ -50,34 +58,44 @@ function halfAngleAt(s: number, d: number, rho: number): number {
   return Math.acos(Math.min(1, Math.max(-1, cos)))
 }
 
+/** Half-angle (radians) of the ring of radii [lo, hi] round the centre that a circle of radius rho centred d out covers; null when they miss. */
+function halfSpan(d: number, rho: number, lo: number, hi: number): number | null {
+  const a = Math.max(lo, d - rho)
+  const b = Math.min(hi, d + rho)
+  if (a >= b || d === 0) return null
+  if (rho >= d) return Math.PI
+  const candidates = [a, b]
+  const graze = Math.sqrt(Math.max(0, d * d - rho * rho))
+  if (graze > a && graze < b) candidates.push(graze)
+  return Math.max(...candidates.map((s) => halfAngleAt(s, d, rho)))
+}
+
 /**
- * Where a pan (its rabbet circle, so the tube's cut edge lands on wood and not
- * on the steel rim) reaches under the tube wall, the tube needs a notch. The
- * notch must clear the pan through the whole wall, so its half-span is the
- * widest angle at which any radius between the wall's inside and outside
- * meets the rabbet circle: at one of the wall faces, or where a ray from the
- * centre grazes the circle if that lies within the wall. The rabbet circle,
- * not the pan's body, because the rim in the rabbet is steel: the tube's cut
- * edge must land on wood. Its height is what rises above the top face (the
- * pan) plus a clearance.
+ * The tube is notched only where a pan or its rim lies under its wall (the
+ * ring between its inside and outside faces), and only as high as what is
+ * under it. The pan's body (the pocket's circle, where the pan stands up from
+ * its rim to its crown) needs the pan's rise plus a clearance for the crown
+ * and the caster's nuts; where only the rim (the rabbet's circle) lies under
+ * the wall, the rim is flush in its rabbet and the notch is a shallow relief
+ * over the rim's fastener heads. The notch spans the rim's angles, so the
+ * tube's cut edge lands on wood beyond the steel; `body` gives the taller
+ * middle part's angles when the body reaches under the wall.
  */
 export function tubeNotches(params: PlateParams, rabbetCircles: readonly { pocketId: string; x: number; y: number; diameter: number }[]): TubeNotch[] {
   const ro = params.tubeDiameter / 2
   const ri = ro - params.tubeWall
+  const tall = panRise(params) + NOTCH_CLEARANCE
   const notches: TubeNotch[] = []
   rabbetCircles.forEach((rb, k) => {
     const d = Math.hypot(rb.x, rb.y)
-    const rho = rb.diameter / 2
-    const lo = Math.max(ri, d - rho)
-    const hi = Math.min(ro, d + rho)
-    if (lo >= hi || d === 0) return
-    const candidates = [lo, hi]
-    const graze = Math.sqrt(Math.max(0, d * d - rho * rho))
-    if (graze > lo && graze < hi) candidates.push(graze)
-    const half = rho >= d ? Math.PI : Math.max(...candidates.map((s) => halfAngleAt(s, d, rho)))
+    const half = halfSpan(d, rb.diameter / 2, ri, ro)
+    if (half === null) return
+    const bodyHalf = halfSpan(d, Math.min(rb.diameter, params.pocketDiameter) / 2, ri, ro)
     const angle = casterAngle(params, k)
     const span = (2 * half) / DEG
     const fromAxis = (((angle - params.rotation) % 360) + 360) % 360
+    // A pan with no rise (a flat plate in the rabbet) stands no higher than its rim.
+    const bodyHeight = Math.max(RIM_RELIEF, tall)
     notches.push({
       pocketId: rb.pocketId,
       angle,
@@ -86,7 +104,9 @@ export function tubeNotches(params: PlateParams, rabbetCircles: readonly { pocke
       span,
       width: ro * 2 * half,
       offsetAlongWrap: ro * fromAxis * DEG,
-      height: panRise(params) + NOTCH_CLEARANCE,
+      height: bodyHalf === null ? RIM_RELIEF : bodyHeight,
+      rimHeight: RIM_RELIEF,
+      body: bodyHalf === null ? null : { span: (2 * bodyHalf) / DEG, width: ro * 2 * bodyHalf },
     })
   })
   return notches

@@ -4,7 +4,7 @@
 
 import { minCasterOffset, type PlateParams } from '../params'
 
-/** How far inside the tube's outside wall a pan's rabbet is tucked, mm: room for a tube that is not quite round (from memory). */
+/** The default of `panTuck`: how far inside the tube's outside wall a pan's rabbet is tucked, mm, room for a tube that is not quite round (common practice, from memory). */
 export const PAN_TUCK = 1.5
 
 export interface CasterPlacement {
@@ -35,7 +35,7 @@ export function placeCasters(p: PlateParams): CasterPlacement {
   // Neighbouring pocket centres stand 2 d sin(pi / n) apart; the rabbets need the minimum wood between them.
   const spacing = (2 * R + p.minWood) / (2 * Math.sin(Math.PI / n))
   const least = Math.max(minCasterOffset(p), spacing)
-  const hiddenMax = p.tubeDiameter / 2 - R - PAN_TUCK
+  const hiddenMax = p.tubeDiameter / 2 - R - (p.panTuck ?? PAN_TUCK)
   if (hiddenMax >= least) {
     return { offset: Math.max(20, Math.floor(hiddenMax * 2) / 2), hidden: true, hiddenMax, least }
   }

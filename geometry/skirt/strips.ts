@@ -30,10 +30,19 @@ export interface SkirtStrip {
   splay: number
   /** Distance along the unrolled tube from the clocking axis to where the strip lands, mm. */
   offsetAlongWrap: number
+  /**
+   * Its two long sides, mm: each from a foot corner (half a strip width along
+   * the edge either side of the station) to its top corner on the tube (half a
+   * width round the tube either side of the landing). A strip leaning across a
+   * root's flank is longer on the side further out.
+   */
+  sides: [number, number]
+  /** The longest of the two sides and the centre line: what to cut, mm. */
+  longestSide: number
 }
 
 export interface CutListRow {
-  /** Cut length, rounded up to the shop's step (mm). */
+  /** Cut length: each strip's longest side, rounded up to the shop's step (mm). */
   length: number
   count: number
   /** Station numbers in this group. */
@@ -47,6 +56,13 @@ export interface SkirtResult {
   largestGap: number
   /** Outline perimeter walked, mm. */
   perimeter: number
+  /**
+   * Where neighbouring stations stand further apart along the edge than a
+   * strip is wide (only a fixed count can do this), the widest such gap: the
+   * stations either side, the gap between them and the bare edge the strips
+   * leave (gap less one strip width). Null when the strips cover the edge.
+   */
+  bareEdge: { after: number; before: number; gap: number; bare: number } | null
 }
 
 export interface SkirtOptions extends Partial<Omit<SkirtSettingsInput, 'profile'>> {
@@ -235,6 +251,7 @@ export function skirtStrips(plate: Plate, options: SkirtOptions = {}): SkirtResu
   const maxRun = Math.max(...runs)
   const high = settings.rootHeight ?? settings.height
 
+  const half = settings.stripWidth / 2
   const strips: SkirtStrip[] = stations.map((st, k) => {
     const run = Math.max(0, runs[k]!)
     const t = maxRun > minRun ? (runs[k]! - minRun) / (maxRun - minRun) : 0
@@ -247,24 +264,43 @@ export function skirtStrips(plate: Plate, options: SkirtOptions = {}): SkirtResu
     const nl = Math.hypot(nx, ny) || 1
     const cos = Math.min(1, Math.max(-1, (nx * st.p[0] + ny * st.p[1]) / (nl * rl)))
     const fromAxis = (((angle - rotation) % 360) + 360) % 360
+    // Each side: the foot corner on the edge to the top corner on the tube, in plan, then up by the rise.
+    const landing = Math.atan2(st.p[1], st.p[0])
+    const side = (dir: 1 | -1): number => {
+      const foot = pointAt(w, positions[k]! + dir * half).p
+      const top = landing + (dir * half) / ro
+      return profileLength(Math.hypot(ro * Math.cos(top) - foot[0], ro * Math.sin(top) - foot[1]), rise, settings.profile)
+    }
+    const sides: [number, number] = [side(-1), side(1)]
+    const length = profileLength(run, rise, settings.profile)
     return {
       number: k + 1,
       angle,
       at: st.p,
       run,
       rise,
-      length: profileLength(run, rise, settings.profile),
+      length,
       lean: Math.atan2(rise, run) / DEG,
       splay: Math.acos(cos) / DEG,
       offsetAlongWrap: ro * fromAxis * DEG,
+      sides,
+      longestSide: Math.max(length, ...sides),
     }
   })
   let largestGap = 0
+  let widestAt = 0
   for (let k = 0; k < positions.length; k++) {
     const next = k + 1 < positions.length ? positions[k + 1]! : positions[0]! + per
-    largestGap = Math.max(largestGap, next - positions[k]!)
+    if (next - positions[k]! > largestGap) {
+      largestGap = next - positions[k]!
+      widestAt = k
+    }
   }
-  return { settings, strips, largestGap, perimeter: per }
+  // Strips centred on their stations each cover half a width either side: a gap wider than a strip leaves bare edge.
+  const bareEdge = largestGap > settings.stripWidth + 1e-6
+    ? { after: widestAt + 1, before: ((widestAt + 1) % positions.length) + 1, gap: largestGap, bare: largestGap - settings.stripWidth }
+    : null
+  return { settings, strips, largestGap, perimeter: per, bareEdge }
 }
 
 /** The shop's usual cutting step: 1/8 in, or 5 mm in metric (from memory). */
@@ -272,12 +308,12 @@ export function cutStep(units: 'in' | 'mm'): number {
   return units === 'in' ? MM_PER_INCH / 8 : 5
 }
 
-/** Strips grouped by length rounded UP to the step (a long strip trims; a short one is scrap), longest first. */
-export function skirtCutList(strips: readonly SkirtStrip[], units: 'in' | 'mm'): CutListRow[] {
+/** Strips grouped by their longest side rounded UP to the step (a long strip trims; a short one is scrap), longest first. */
+export function skirtCutList(strips: readonly Pick<SkirtStrip, 'number' | 'longestSide'>[], units: 'in' | 'mm'): CutListRow[] {
   const step = cutStep(units)
   const groups = new Map<number, CutListRow>()
   for (const s of strips) {
-    const key = Math.ceil(s.length / step - 1e-9)
+    const key = Math.ceil(s.longestSide / step - 1e-9)
     const row = groups.get(key) ?? { length: key * step, count: 0, stations: [] }
     row.count++
     row.stations.push(s.number)

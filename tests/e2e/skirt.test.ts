@@ -100,6 +100,11 @@ describe('the skirt panel in Chromium', () => {
     await page.getByLabel('Stations').fill('30')
     await page.getByLabel('Stations').press('Enter')
     await expect.poll(qty).toBe(30)
+    // Six stations round six roots on a 12 in tube: far more than a 3 in strip apart, so a warning names the gap.
+    await page.getByLabel('Stations').fill('6')
+    await page.getByLabel('Stations').press('Enter')
+    await expect.poll(async () => (await panel.getByTestId('skirt-bare-edge').textContent()) ?? '').toMatch(/stand .+ apart along the edge, more than a strip's width .+ of edge is left bare/)
+    await panel.screenshot({ path: `${shots}/skirt-bare-edge.png` })
     await page.getByLabel('Stations').fill('2')
     await page.getByLabel('Stations').press('Enter')
     await expect.poll(() => panel.getByRole('alert').first().textContent()).toMatch(/3 to 720/)
@@ -108,6 +113,10 @@ describe('the skirt panel in Chromium', () => {
     const straight = await longest()
     await page.getByLabel('Profile').selectOption('quarter-ellipse')
     await expect.poll(longest).not.toBe(straight)
+    // Emptied, the count is automatic again: spaced by the strip width, no bare edge and no warning.
+    await page.getByLabel('Stations').fill('')
+    await page.getByLabel('Stations').press('Enter')
+    await expect.poll(() => panel.getByTestId('skirt-bare-edge').count()).toBe(0)
     await page.close()
   })
 })

@@ -121,6 +121,9 @@ export function fixturePlate(options: FixtureOptions = {}): Plate {
       width: (circumference * span) / 360,
       offsetAlongWrap: (circumference * angle) / 360,
       height: 25.4,
+      // One height across: the pan's body under the whole notch.
+      rimHeight: 25.4,
+      body: { span, width: (circumference * span) / 360 },
     })
   }
   for (let i = 0; i < casters; i++) {

@@ -1,7 +1,7 @@
 // What the printouts and cut files tell the person cutting, read back with independent
 // readers: dxf-parser for the cut file, poppler's pdftotext for the PDFs, polygon-clipping
 // for sheet coverage. Hand values: 1 in = 25.4 mm (NIST SP 811); a "3/4 in" panel is
-// labelled 0.703 in (PS 1-19, performance category 23/32).
+// performance category 23/32 (PS 1-19), the default's 23/32 in.
 import { execFileSync } from 'node:child_process'
 import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -52,15 +52,15 @@ describe('tape lengths', () => {
 describe('the cut file notes layer (read back by dxf-parser)', () => {
   const parse = (text: string) => new DxfParser().parseSync(text)!
 
-  it('names the design, revision, pieces, layers, face up and the 0.703 in sheet, on a layer that is never cut', () => {
+  it('names the design, revision, pieces, layers, face up and the 23/32 in sheet, on a layer that is never cut', () => {
     const dxf = parse(renderCutDxf(clean, { units: 'in', meta: { designName: 'Hollow ash', sizeLabel: 'small', revision: 4 } }))
     expect(Object.keys(dxf.tables.layer.layers)).toContain(LAYER_NOTES)
     const text = notes(dxf).join('\n')
     expect(text).toContain('Hollow ash')
     expect(text).toContain('revision 4')
-    // Default plate: 2 layers of 0.703 in, so 2 pieces, 1-13/32 in glued (1.406 in).
-    expect(text).toContain('Cut 2 pieces per plate from 0.703 in plywood')
-    expect(text).toContain('1-13/32 in')
+    // Default plate: 2 layers of 23/32 in, so 2 pieces, 46/32 = 1-7/16 in glued (hand sum).
+    expect(text).toContain('Cut 2 pieces per plate from 23/32 in plywood')
+    expect(text).toContain('1-7/16 in glued')
     expect(text).toMatch(/TOP face/)
     expect(text).not.toContain('SAVED WITH ERRORS')
     // Only text there, and no text anywhere else (no text on cut layers: common CNC practice).
@@ -80,7 +80,7 @@ describe('the cut file notes layer (read back by dxf-parser)', () => {
     const doc = new new Window().DOMParser().parseFromString(renderCutSvg(bad, { units: 'in' }), 'image/svg+xml')
     const desc = doc.querySelector('desc')?.textContent ?? ''
     expect(desc).toMatch(/^SAVED WITH ERRORS/)
-    expect(desc).toContain('Cut 2 pieces per plate from 0.703 in plywood')
+    expect(desc).toContain('Cut 2 pieces per plate from 23/32 in plywood')
   })
 
   it('counts the bottom layers of a three-layer plate: 2 pieces, no rabbets', () => {
@@ -95,7 +95,7 @@ describe('template, build sheet and tube wrap (read back by pdftotext)', () => {
   it('the template cover carries the cut list, and the warning only for a revision with errors', async () => {
     const good = pdfText(await renderTemplatePdf(clean, { paper: 'letter', font, meta: { designName: 'Hollow ash', revision: 4 } }), 'good.pdf', 1)
     expect(good).toContain('Cut list')
-    expect(good).toContain('Cut 2 pieces per plate from 0.703 in plywood')
+    expect(good).toContain('Cut 2 pieces per plate from 23/32 in plywood')
     expect(good).not.toContain('SAVED WITH ERRORS')
     const pdf = await renderTemplatePdf(bad, { paper: 'letter', font, meta: { designName: 'Bad beech', revision: 2 } })
     expect(pdfText(pdf, 'bad.pdf', 1)).toContain('SAVED WITH ERRORS')

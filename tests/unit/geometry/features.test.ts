@@ -206,12 +206,12 @@ describe('floor gap (the stack model in geometry/checks/floor.ts)', () => {
   })
 
   it('worked example, the default plate on 2 in casters, by hand', () => {
-    // T = 35.7124; seat = 35.7124 - 9.525 + 31.75 = 57.9374; gap = 66.675 - 57.9374 = 8.7376 mm,
+    // T = 2 x 23/32 in = 36.5125; seat = 36.5125 - 9.525 + 31.75 = 58.7375; gap = 66.675 - 58.7375 = 7.9375 mm,
     // below the 25.4 mm axle: reach = 19.05 + 25.4 = 44.45; tread edge hypot(44.45, 9.525) = 45.4591;
     // with the 6.35 clearance 51.8091 mm, inside the 4-1/4 in pocket's 53.975 mm radius.
     const params = plateParamsSchema.parse({})
     const stack = floorStack(params)
-    expect(stack.floorGap).toBeCloseTo(8.7376, 9)
+    expect(stack.floorGap).toBeCloseTo(7.9375, 9)
     expect(stack.wheelReach).toBeCloseTo(44.45, 9)
     expect(stack.swivelRadius).toBeCloseTo(51.8091, 3)
     expect(buildPlate(params).findings.map((f) => f.code)).not.toContain('wheel-swing')

@@ -207,6 +207,8 @@ export const acceptedParams: fc.Arbitrary<PlateParams> = rawParams
  */
 export const THREE_INCH = {
   casterOffset: 170,
+  // Two "3/4 in" panels labelled 0.703 in (PS 1-19, category 23/32): T = 35.7124 mm in the worked examples.
+  sheetThickness: 0.703 * 25.4,
   pocketDiameter: 165.1,
   rabbetWidth: 15.875,
   panDepth: 63.5,

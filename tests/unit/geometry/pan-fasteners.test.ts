@@ -14,7 +14,8 @@ const FLOOR_WOOD = 2 * 0.703 - 0.375
 const FLOOR_GAP = 2.625 - (2 * 0.703 - 0.375 + 1.25)
 
 function build(fasteners: Record<string, unknown>) {
-  return buildPlate(plateParamsSchema.parse({ fasteners }))
+  // Sheets of 0.703 in, as the hand figures above take them (set here: the default is 23/32 in).
+  return buildPlate(plateParamsSchema.parse({ fasteners, sheetThickness: 0.703 * 25.4 }))
 }
 const codes = (fasteners: Record<string, unknown>) => build(fasteners).findings.map((f) => f.code)
 const finding = (fasteners: Record<string, unknown>, code: string) => build(fasteners).findings.find((f) => f.code === code)

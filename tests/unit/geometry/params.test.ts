@@ -48,8 +48,8 @@ describe('plateParamsSchema', () => {
     expect(plateParamsSchema.parse(JSON.parse(JSON.stringify(p)))).toEqual(p)
   })
 
-  it('takes the 3/4 in panel default from its labelled thickness, 0.703 in (PS 1-19, category 23/32)', () => {
-    expect(plateParamsSchema.parse({}).sheetThickness).toBeCloseTo(0.703 * 25.4, 9)
+  it('takes the "3/4 in" panel default as the shop buys it: 23/32 in (PS 1-19, performance category 23/32, 0.688-0.750 in)', () => {
+    expect(plateParamsSchema.parse({}).sheetThickness).toBeCloseTo((23 / 32) * 25.4, 9)
   })
 
   it.each([

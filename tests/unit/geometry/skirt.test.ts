@@ -153,8 +153,134 @@ describe('stations and runs', () => {
   })
 })
 
+/** Arc walker written here, apart from the library's: the point at arc length s along a closed polygon. */
+function walker(ring: readonly (readonly [number, number])[]) {
+  const cum = [0]
+  for (let i = 0; i < ring.length; i++) {
+    const [x1, y1] = ring[i]!
+    const [x2, y2] = ring[(i + 1) % ring.length]!
+    cum.push(cum[i]! + Math.hypot(x2 - x1, y2 - y1))
+  }
+  const perimeter = cum[ring.length]!
+  const at = (s: number): [number, number] => {
+    s = ((s % perimeter) + perimeter) % perimeter
+    let i = 0
+    while (cum[i + 1]! < s) i++
+    const [x1, y1] = ring[i]!
+    const [x2, y2] = ring[(i + 1) % ring.length]!
+    const t = (s - cum[i]!) / (cum[i + 1]! - cum[i]! || 1)
+    return [x1 + (x2 - x1) * t, y1 + (y2 - y1) * t]
+  }
+  const arcOf = (p: readonly [number, number]): number => {
+    let best = Infinity
+    let pos = 0
+    for (let i = 0; i < ring.length; i++) {
+      const [x1, y1] = ring[i]!
+      const [x2, y2] = ring[(i + 1) % ring.length]!
+      const L2 = (x2 - x1) ** 2 + (y2 - y1) ** 2 || 1
+      const u = Math.max(0, Math.min(1, ((p[0] - x1) * (x2 - x1) + (p[1] - y1) * (y2 - y1)) / L2))
+      const d = Math.hypot(x1 + u * (x2 - x1) - p[0], y1 + u * (y2 - y1) - p[1])
+      if (d < best) { best = d; pos = cum[i]! + u * Math.sqrt(L2) }
+    }
+    return pos
+  }
+  return { perimeter, at, arcOf }
+}
+
+describe('a fixed station count that leaves bare edge (issue 23, item 14)', () => {
+  // A round plate: no lobes, valley 150 mm on the default 12-1/2 in tube, so radius R = 158.75 + 150 = 308.75 mm
+  // and a perimeter of 2 pi R = 1939.9 mm (plain geometry; the outline polygon is a hair shorter).
+  const round = buildPlate(plateParamsSchema.parse({ lobes: { count: 0, irregularity: 0, valley: 150 } }))
+  const R = 308.75
+  const width = 76.2
+
+  it('12 stations on a 1939.9 mm edge stand 161.7 mm apart: a warning with the gap and 85.5 mm of bare edge (hand sums)', () => {
+    const r = skirtStrips(round, { count: 12, stripWidth: width, overlap: 19.05 })
+    // Hand: 2 pi 308.75 / 12 = 161.66 mm; bare = 161.66 - 76.2 = 85.46 mm. The stations follow the automatic
+    // density, which on a circle is even to within the closing step, so allow 1 %.
+    expect(r.bareEdge).not.toBeNull()
+    expect(r.bareEdge!.gap).toBeGreaterThan(0.99 * (2 * Math.PI * R) / 12)
+    expect(r.bareEdge!.gap).toBeLessThan(1.01 * (2 * Math.PI * R) / 12)
+    expect(r.bareEdge!.bare).toBeCloseTo(r.bareEdge!.gap - width, 9)
+    // Neighbouring station numbers, the last one wrapping to the first.
+    expect(Math.abs(r.bareEdge!.before - r.bareEdge!.after) === 1 || (r.bareEdge!.after === 12 && r.bareEdge!.before === 1)).toBe(true)
+  })
+
+  it('the threshold is one strip width: 25 stations (77.6 mm apart) warn, 26 (74.6 mm) do not (2 pi R / n by hand)', () => {
+    expect(skirtStrips(round, { count: 25, stripWidth: width, overlap: 19.05 }).bareEdge).not.toBeNull()
+    expect(skirtStrips(round, { count: 26, stripWidth: width, overlap: 19.05 }).bareEdge).toBeNull()
+  })
+
+  for (const preset of PRESETS) {
+    it(`${preset.id}: automatic spacing never leaves bare edge`, () => {
+      expect(skirtStrips(buildPlate(presetParams(preset.id)!)).bareEdge).toBeNull()
+    })
+  }
+})
+
+describe("each strip's two sides (issue 23, item 14)", () => {
+  it('on a round plate both sides are equal, by the law of cosines and Pythagoras (hand sums)', () => {
+    const plate = buildPlate(plateParamsSchema.parse({ lobes: { count: 0, irregularity: 0, valley: 150 } }))
+    const { strips } = skirtStrips(plate, { height: 127, stripWidth: 76.2, overlap: 19.05, profile: 'straight' })
+    // Foot corners half a width along the edge (angle 38.1 / 308.75 either side), top corners half a width round
+    // the tube (38.1 / 158.75): in plan they are sqrt(R^2 + ro^2 - 2 R ro cos(dphi)) apart, then up 127 mm.
+    const R = 308.75
+    const ro = 158.75
+    const dphi = 38.1 / R - 38.1 / ro
+    const plan = Math.sqrt(R * R + ro * ro - 2 * R * ro * Math.cos(dphi))
+    const side = Math.hypot(plan, 127)
+    // dphi = 0.12340 - 0.24000 = -0.11660 rad; plan = 152.20 mm; side = hypot(152.20, 127) = 198.2 mm (by hand).
+    // The outline polygon stands a hair inside the circle, so each built side may differ by 0.3 mm.
+    expect(side).toBeCloseTo(198.2, 0)
+    for (const s of strips) {
+      expect(Math.abs(s.sides[0] - side)).toBeLessThan(0.3)
+      expect(Math.abs(s.sides[1] - side)).toBeLessThan(0.3)
+    }
+  })
+
+  it('a strip leaning across a root flank is longer on its outer side; each side is Pythagoras on corners found here', () => {
+    // Six long even roots on a 12 in tube: the flanks run steeply outward.
+    const plate = buildPlate(plateParamsSchema.parse({ tubeDiameter: 304.8, rotation: 0, lobes: { count: 6, reach: 250, width: 70, irregularity: 0 } }))
+    const width = 76.2
+    const rise = 150
+    const { strips } = skirtStrips(plate, { height: rise, stripWidth: width, overlap: 19.05, profile: 'straight' })
+    const w = walker(plate.outline)
+    const ro = plate.params.tubeDiameter / 2
+    let lopsided = 0
+    for (const s of strips) {
+      const arc = w.arcOf(s.at)
+      const landing = Math.atan2(s.at[1], s.at[0])
+      const sides = [-1, 1].map((dir) => {
+        const foot = w.at(arc + (dir * width) / 2)
+        const top: [number, number] = [ro * Math.cos(landing + (dir * width) / 2 / ro), ro * Math.sin(landing + (dir * width) / 2 / ro)]
+        // Pythagoras in three dimensions: plan offset, then the rise.
+        return { length: Math.hypot(top[0] - foot[0], top[1] - foot[1], rise), footRadius: Math.hypot(foot[0], foot[1]) }
+      })
+      expect(Math.abs(s.sides[0] - sides[0]!.length)).toBeLessThan(0.05)
+      expect(Math.abs(s.sides[1] - sides[1]!.length)).toBeLessThan(0.05)
+      expect(s.longestSide).toBeCloseTo(Math.max(s.length, sides[0]!.length, sides[1]!.length), 6)
+      if (Math.abs(sides[0]!.length - sides[1]!.length) > 25) {
+        lopsided++
+        // The longer side is the one whose foot stands further out along the flank.
+        const outer = sides[0]!.footRadius > sides[1]!.footRadius ? 0 : 1
+        expect(s.sides[outer]).toBeGreaterThan(s.sides[1 - outer]!)
+        expect(s.longestSide).toBeGreaterThan(s.length + 10)
+      }
+    }
+    // Each of the 6 roots has two flanks with strips across them.
+    expect(lopsided).toBeGreaterThanOrEqual(12)
+    // The cut list lists every strip at its longest side, rounded up to 1/8 in (3.175 mm).
+    const rows = skirtCutList(strips, 'in')
+    for (const s of strips) {
+      const row = rows.find((r) => r.stations.includes(s.number))!
+      expect(row.length).toBeGreaterThanOrEqual(s.longestSide - 1e-9)
+      expect(row.length - s.longestSide).toBeLessThan(3.175)
+    }
+  })
+})
+
 describe('cut list', () => {
-  const fake = (number: number, length: number) => ({ number, angle: 0, at: [0, 0] as [number, number], run: 0, rise: 0, length, lean: 0, splay: 0, offsetAlongWrap: 0 })
+  const fake = (number: number, longestSide: number) => ({ number, longestSide })
 
   it('groups by length rounded up to 1/8 in (3.175 mm) or 5 mm, with totals', () => {
     const strips = [fake(1, 100.1), fake(2, 101.5), fake(3, 103.2), fake(4, 100.0)]
