@@ -32,8 +32,12 @@ export const BREAKS: Break[] = [
 
   // Statics.
   { id: 'gravity-10', area: 'statics', file: 'geometry/stability/stability.ts', find: 'export const STANDARD_GRAVITY = 9.80665', replace: 'export const STANDARD_GRAVITY = 10', what: 'every force 2 % high', tests: [STABILITY] },
-  { id: 'tip-angle-atan-h-over-d', area: 'statics', file: 'geometry/stability/support.ts', find: 'Math.atan2(distance, Math.max(height, 1e-9))', replace: 'Math.atan2(Math.max(height, 1e-9), distance)', what: 'tipping angle is the complement', tests: [STABILITY] },
+  { id: 'tip-angle-atan-h-over-d', area: 'statics', file: 'geometry/stability/support.ts', find: 'return { distance, angle: Math.atan2(distance, Math.max(height, 1e-9)) * DEG, edge: best }', replace: 'return { distance, angle: Math.atan2(Math.max(height, 1e-9), distance) * DEG, edge: best }', what: 'tipping angle is the complement', tests: [STABILITY] },
   { id: 'push-ignores-height', area: 'statics', file: 'geometry/stability/stability.ts', find: '(weightNewtons * (tip.distance / 1000)) / (pushHeight / 1000)', replace: '(weightNewtons * (tip.distance / 1000)) / 1', what: 'the push that tips it ignores where it is pushed', tests: [STABILITY] },
+
+  { id: 'caster-load-even-share', area: 'statics', file: 'geometry/stability/support.ts', find: '  return { worst: worst * mass, caster, stance, held: true }', replace: '  return { worst: mass / n, caster, stance, held: true }', what: 'the load per caster is the even share, not the worst caster on an uneven floor', tests: [STABILITY] },
+  { id: 'caster-load-any-stance', area: 'statics', file: 'geometry/stability/support.ts', find: '        if (la < -eps || lb < -eps || lc < -eps) continue', replace: '', what: 'stances that do not hold the centre of mass count', tests: [STABILITY] },
+  { id: 'caster-rating-made-up', area: 'statics', file: 'geometry/stability/unit-params.ts', find: '  casterRating: z.number().finite().min(0).max(5000).nullable().optional(),', replace: '  casterRating: z.number().finite().min(0).max(5000).nullable().optional().default(113.398),', what: 'a made-up 250 lb caster rating', tests: [STABILITY] },
 
   // Geometry figures a shop buys and cuts by.
   { id: 'area-keeps-holes', area: 'geometry', file: 'geometry/metrics/metrics.ts', find: 'const area = signedArea(input.outline) - holeArea', replace: 'const area = signedArea(input.outline)', what: 'plate area and weight count the holes as wood', tests: ['tests/unit/geometry/areas.test.ts', 'tests/unit/geometry/presets-metrics.test.ts'] },
@@ -51,7 +55,7 @@ export const BREAKS: Break[] = [
   { id: 'sheet-dxf-units-mm', area: 'exports', file: 'geometry/nest/layout-dxf.ts', find: "d.setUnits(options.units === 'in' ? 'Inches' : 'Millimeters')", replace: "d.setUnits('Millimeters')", what: 'the sheet DXF in inches says millimetres', tests: [NEST, 'tests/e2e/sheet-plan.test.ts'] },
 
   // Nesting.
-  { id: 'nest-no-kerf', area: 'nesting', file: 'geometry/nest/nest.ts', find: 'sheet.kerf / 2', replace: '0', what: 'parts nested touching: the saw eats into the next part', tests: [NEST] },
+  { id: 'nest-no-kerf', area: 'nesting', file: 'geometry/nest/nest.ts', find: 'Math.max(0, sheet.kerf - FIT_ROUNDING) / 2', replace: '0', what: 'parts nested touching: the saw eats into the next part', tests: [NEST] },
   { id: 'nest-grain-ignored', area: 'nesting', file: 'geometry/nest/nest.ts', find: "if (!grain || d === 0 || d === 180) set.add(d)", replace: 'set.add(d)', what: 'parts turned across the grain when the grain must run along', tests: [NEST] },
   { id: 'glue-one-line-more', area: 'nesting', file: 'geometry/nest/plan.ts', find: '? layouts.reduce((s, l) => s + (l.sheets - 1) * sheetArea, 0)', replace: '? layouts.reduce((s, l) => s + l.sheets * sheetArea, 0)', what: 'glue for a glue line too many per panel', tests: [NEST] },
 
@@ -75,7 +79,10 @@ export const BREAKS: Break[] = [
   // Limits.
   { id: 'sign-in-free-100', area: 'limits', file: 'server/services/sign-in-limits.ts', find: '  FREE_FAILURES: 10,', replace: '  FREE_FAILURES: 100,', what: 'a hundred free password guesses', tests: ['tests/unit/services/sign-in-limits.test.ts', 'tests/e2e/auth.test.ts'] },
   { id: 'sign-in-no-pause', area: 'limits', file: 'server/services/sign-in-limits.ts', find: '  FIRST_DELAY_MS: 250,', replace: '  FIRST_DELAY_MS: 0,', what: 'guesses past the free ones are not slowed', tests: ['tests/unit/services/sign-in-limits.test.ts', 'tests/e2e/auth.test.ts'] },
-  { id: 'resets-per-hour-30', area: 'limits', file: 'server/services/auth.ts', find: 'export const RESETS_PER_HOUR = 3', replace: 'export const RESETS_PER_HOUR = 30', what: 'thirty reset mails an hour to one address', tests: ['tests/e2e/auth.test.ts'] },
+  { id: 'resets-per-hour-30', area: 'limits', file: 'server/services/rate-limits.ts', find: 'resetsPerRecipient: { max: 3, windowSeconds: HOUR },', replace: 'resetsPerRecipient: { max: 30, windowSeconds: HOUR },', what: 'thirty reset mails an hour to one address', tests: ['tests/e2e/accounts-hardening.test.ts', 'tests/e2e/auth.test.ts'] },
+  { id: 'mail-per-recipient-500', area: 'limits', file: 'server/services/rate-limits.ts', find: 'mailPerRecipient: { max: 5, windowSeconds: HOUR },', replace: 'mailPerRecipient: { max: 500, windowSeconds: HOUR },', what: 'an outside address flooded with share mails', tests: ['tests/e2e/accounts-hardening.test.ts'] },
+  { id: 'json-depth-uncapped', area: 'limits', file: 'server/utils/validation.ts', find: 'export const MAX_JSON_DEPTH = 32', replace: 'export const MAX_JSON_DEPTH = 1_000_000', what: 'a deep JSON body walks the server thread', tests: ['tests/unit/services/json-depth.test.ts', 'tests/e2e/stalls.test.ts'] },
+  { id: 'labels-uncapped', area: 'limits', file: 'server/services/labels.ts', find: 'export const MAX_LABELS_PER_SHEET = 200', replace: 'export const MAX_LABELS_PER_SHEET = 200_000', what: 'one viewer asks for every label at once', tests: ['tests/e2e/stalls.test.ts'] },
   { id: 'body-limit-design-16mb', area: 'limits', file: 'server/utils/request-limits.ts', find: '  design: 256 * 1024,', replace: '  design: 16 * 1024 * 1024,', what: 'a 16 MB design body is parsed', tests: ['tests/e2e/hardening.test.ts'] },
   { id: 'body-limit-auth', area: 'limits', file: 'server/utils/request-limits.ts', find: '  auth: 8 * 1024,', replace: '  auth: 1024 * 1024,', what: 'a megabyte sign-in body is parsed', tests: ['tests/e2e/hardening.test.ts'] },
   { id: 'upload-limit-150mb', area: 'limits', file: 'server/utils/upload.ts', find: 'export const UPLOAD_LIMIT = 15 * 1024 * 1024', replace: 'export const UPLOAD_LIMIT = 150 * 1024 * 1024', what: 'uploads of 150 MB', tests: ['tests/e2e/uploads.test.ts'] },

@@ -54,14 +54,20 @@ export function bucketKeys(email: string, address: string): string[] {
  * (turn out of reach) is not counted.
  */
 export async function claimBucket(db: Database, key: string, limits = SIGN_IN_LIMITS): Promise<Claim> {
+  // Quiet buckets are forgotten here, so the table never outgrows the current attacks. Rows another try
+  // holds are skipped, never waited for: two claims never lock each other's rows in turn (no deadlock).
+  await db.$client`delete from sign_in_limits where key in (
+    select key from sign_in_limits where updated_at < now() - make_interval(mins => ${limits.WINDOW_MINUTES}) for update skip locked)`
   return db.$client.begin(async (sql) => {
-    // Quiet buckets are forgotten here, so the table never outgrows the current attacks.
-    await sql`delete from sign_in_limits where updated_at < now() - make_interval(mins => ${limits.WINDOW_MINUTES})`
-    await sql`insert into sign_in_limits (key) values (${key}) on conflict (key) do nothing`
+    // One statement makes or locks the row, so a bucket cannot vanish between them; one that went quiet
+    // for the whole window (and was not yet forgotten) starts afresh.
     const [row] = await sql<{ failures: number; next_ms: number }[]>`
-      select failures, (extract(epoch from (next_at - now())) * 1000)::float8 as next_ms
-      from sign_in_limits where key = ${key} for update`
-    if (!row) throw new Error('sign-in bucket vanished under its lock')
+      insert into sign_in_limits (key) values (${key})
+      on conflict (key) do update set
+        failures = case when sign_in_limits.updated_at < now() - make_interval(mins => ${limits.WINDOW_MINUTES}) then 0 else sign_in_limits.failures end,
+        next_at = case when sign_in_limits.updated_at < now() - make_interval(mins => ${limits.WINDOW_MINUTES}) then now() else sign_in_limits.next_at end
+      returning failures, (extract(epoch from (next_at - now())) * 1000)::float8 as next_ms`
+    if (!row) throw new Error('sign-in bucket not made')
     // Times relative to the database's now(), so the server's clock never enters.
     const overLimit = row.failures >= limits.FREE_FAILURES
     const turn = overLimit ? Math.max(0, row.next_ms) : 0

@@ -103,7 +103,7 @@ describe('6. the mail page shows a lead only what that lead sent', () => {
     expect((await api('/api/shop/invitations', { method: 'POST', cookie: oneCookie, body: { email: a, role: 'viewer' } })).status).toBe(201)
     expect((await api('/api/shop/invitations', { method: 'POST', cookie: twoCookie, body: { email: b, role: 'viewer' } })).status).toBe(201)
     // The designer's first shop is this one: a reset link to them must not reach its leads.
-    await api('/api/auth/forgot', { method: 'POST', body: { email: d!.email } })
+    await api('/api/auth/forgot', { method: 'POST', body: { email: d!.email }, address: freshAddress() })
     await waitForMail(a, /Join/)
     await waitForMail(b, /Join/)
     await waitForMail(d!.email, /new Rootplate password/)
@@ -435,8 +435,8 @@ describe('14. forgot-password does the same work for known and unknown addresses
   it('answers the same and takes the cap on the address either way, account or not', async () => {
     const { people: [p] } = await makeShop('Same Work Players', [{ role: 'viewer', name: 'Sam Same' }])
     const unknown = uniqueEmail('no-account')
-    const a = await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email } })
-    const b = await api('/api/auth/forgot', { method: 'POST', body: { email: unknown } })
+    const a = await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email }, address: freshAddress() })
+    const b = await api('/api/auth/forgot', { method: 'POST', body: { email: unknown }, address: freshAddress() })
     expect([a.status, b.status]).toEqual([202, 202])
     expect(a.body).toEqual(b.body)
     const counts = async () => (await testSql<{ key: string; count: number }[]>(

@@ -117,7 +117,7 @@ describe('crew and sharing in Chromium', () => {
     await outside.page.screenshot({ path: `${shots}/share-page.png`, fullPage: true })
     const [download] = await Promise.all([
       outside.page.waitForEvent('download'),
-      outside.page.getByRole('link', { name: 'Both plywood layers, inches' }).click(),
+      outside.page.getByRole('link', { name: 'Both plywood layers, inches', exact: true }).click(),
     ])
     const dxfText = readFileSync((await download.path())!, 'utf8')
     const dxf = new DxfParser().parseSync(dxfText)!

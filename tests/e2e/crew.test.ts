@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { api, demo, signIn, type DemoRole } from './support/api'
+import { api, demo, freshAddress, signIn, type DemoRole } from './support/api'
 import { OTHER_LEAD } from './support/fixtures'
 import { cookieValue, makeShop, sessionRowId, setCookieOf, signInAs, tokenOf, uniqueEmail, type TestPerson } from './support/crew'
 import { testSql } from './support/db'
@@ -267,8 +267,8 @@ describe('password reset', () => {
   it('answers the same whether or not the address exists, and mails only a real account', async () => {
     const { people: [p] } = await makeShop('Reset Players', [{ role: 'designer', name: 'Rae Reset' }])
     const unknown = uniqueEmail('nobody')
-    const a = await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email } })
-    const b = await api('/api/auth/forgot', { method: 'POST', body: { email: unknown } })
+    const a = await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email }, address: freshAddress() })
+    const b = await api('/api/auth/forgot', { method: 'POST', body: { email: unknown }, address: freshAddress() })
     expect(a.status).toBe(202)
     expect(b.status).toBe(202)
     expect(a.body).toEqual(b.body)
@@ -281,13 +281,14 @@ describe('password reset', () => {
   it('sends at most three reset e-mails an hour to one account, answering every request the same', async () => {
     const { people: [p] } = await makeShop('Flood Players', [{ role: 'viewer', name: 'Fen Flood' }])
     const answers = []
-    for (let i = 0; i < 5; i++) answers.push(await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email } }))
+    // From an address of its own: the per-address cap on reset requests is not this test's subject.
+    const address = freshAddress()
+    for (let i = 0; i < 5; i++) answers.push(await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email }, address }))
     expect(answers.map(a => a.status)).toEqual([202, 202, 202, 202, 202])
     expect(new Set(answers.map(a => JSON.stringify(a.body))).size).toBe(1)
-    // Each e-mail carries a link made (a row written) before its request was answered, so once all five are
-    // answered the rows say how many e-mails can ever go: three, no waiting for stragglers.
-    const rows = await testSql<{ n: number }[]>('select count(*)::int as n from password_resets where user_id = $1', [p!.id])
-    expect(rows[0]!.n).toBe(3)
+    // The answer goes first and the link is made after it (so known and unknown addresses answer alike): wait
+    // for the rows; the cap that stops the fourth and fifth is checked under 60 at once in accounts-hardening.
+    await expect.poll(async () => (await testSql<{ n: number }[]>('select count(*)::int as n from password_resets where user_id = $1', [p!.id]))[0]!.n).toBe(3)
     const seen: string[] = []
     const links = new Set<string>()
     for (let i = 0; i < 3; i++) {
@@ -301,7 +302,7 @@ describe('password reset', () => {
   it('the link sets a new password once, within an hour, and ends every session of the account', async () => {
     const { people: [p] } = await makeShop('Reset Two Players', [{ role: 'builder', name: 'Rio Reset' }])
     const old = await signInAs(p!.email, p!.password)
-    await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email } })
+    await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email }, address: freshAddress() })
     const mail = await waitForMail(p!.email, /new Rootplate password/)
     const token = tokenOf(mail.link)
     const weak = await api('/api/auth/reset', { method: 'POST', body: { token, password: 'short' } })
@@ -316,7 +317,7 @@ describe('password reset', () => {
 
     // A second link, aged past its hour.
     const seen = await mailFilesTo(p!.email)
-    await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email } })
+    await api('/api/auth/forgot', { method: 'POST', body: { email: p!.email }, address: freshAddress() })
     const late = await waitForMail(p!.email, /new Rootplate password/, seen)
     await testSql(`update password_resets set expires_at = now() - interval '1 second' where user_id = $1 and used_at is null`, [p!.id])
     const expired = await api('/api/auth/reset', { method: 'POST', body: { token: tokenOf(late.link), password: 'another-new-password' } })

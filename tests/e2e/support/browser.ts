@@ -112,6 +112,9 @@ export function watchPage(page: Page, allow: RegExp[] = []): Page {
   })
   page.on('download', d => w.downloads.add(d.url()))
   page.on('console', (m) => {
+    // The watcher's own init script (addInitScript) runs in every frame; in a sandboxed frame without scripts
+    // (the Mail page shows each message so) Chromium blocks it and says so. That block is the sandbox working.
+    if (/^Blocked script execution in 'about:srcdoc' because the document's frame is sandboxed/.test(m.text())) return
     if (m.type() === 'error' || /hydration/i.test(m.text())) w.problems.push(`console ${m.type()}: ${m.text()}`)
   })
   page.on('pageerror', e => w.problems.push(`uncaught: ${e.message}`))
