@@ -1,14 +1,20 @@
 // The parameter panel's fields: where each value lives in the params, how it
 // is entered, and which group it belongs to. Bounds and messages come from
 // the geometry schema itself.
-export type FieldKind = 'length' | 'count' | 'angle' | 'ratio' | 'toggle' | 'seed'
+export type FieldKind = 'length' | 'count' | 'angle' | 'ratio' | 'toggle' | 'seed' | 'choice'
 
 export interface ParamField {
   path: string
   label: string
   kind: FieldKind
   hint?: string
+  /** A choice field's values and the words shown for them. */
+  options?: { value: string; label: string }[]
+  /** Shown only while this holds for the params (a field that applies to one fastener kind, say). */
+  showIf?: (params: unknown) => boolean
 }
+
+const fastenerKindIs = (...kinds: string[]) => (params: unknown) => kinds.includes(String(getPath(params, 'fasteners.kind') ?? 'screw'))
 
 export interface ParamGroup {
   id: string
@@ -31,6 +37,7 @@ export const paramGroups: ParamGroup[] = [
     fields: [
       { path: 'casterCount', label: 'Casters', kind: 'count' },
       { path: 'casterOffset', label: 'Caster offset', kind: 'length', hint: 'Plate centre to pocket centre' },
+      { path: 'panTuck', label: 'Pan tuck', kind: 'length', hint: 'How far inside the tube\'s outside face the pans\' rims are kept, for a tube that is not quite round' },
       { path: 'rotation', label: 'Rotation', kind: 'angle', hint: 'Angle of the first caster and the index holes' },
       { path: 'pocketDiameter', label: 'Pocket diameter', kind: 'length' },
       { path: 'rabbetWidth', label: 'Rabbet width', kind: 'length' },
@@ -53,9 +60,22 @@ export const paramGroups: ParamGroup[] = [
     id: 'fasteners',
     title: 'Pan fasteners',
     fields: [
+      {
+        path: 'fasteners.kind', label: 'Fastener kind', kind: 'choice', hint: 'Screws stay in the wood; bolts go right through the bottom layer',
+        options: [
+          { value: 'screw', label: 'wood screws into the rabbet floor' },
+          { value: 'bolt-tnut', label: 'through-bolts with T-nuts' },
+          { value: 'bolt-counterbore', label: 'through-bolts, nut in a counterbore' },
+        ],
+      },
       { path: 'fasteners.count', label: 'Per pan', kind: 'count', hint: 'Screws or bolts through the rabbet floor holding each pan\'s rim' },
       { path: 'fasteners.diameter', label: 'Hole diameter', kind: 'length' },
       { path: 'fasteners.boltCircleDiameter', label: 'Bolt circle', kind: 'length', hint: 'Diameter they stand on; empty puts them in the middle of the rabbet ring' },
+      { path: 'fasteners.length', label: 'Reach below the rim', kind: 'length', hint: 'How far the screw or bolt goes down from the rabbet floor' },
+      { path: 'fasteners.edgeWood', label: 'Wood beside a hole', kind: 'length', hint: 'Least wood between a fastener hole and the pocket or rabbet edge' },
+      { path: 'fasteners.tnutFlange', label: 'T-nut flange', kind: 'length', hint: 'How far the flange stands below the underside; 0 when let in flush', showIf: fastenerKindIs('bolt-tnut') },
+      { path: 'fasteners.counterboreDiameter', label: 'Counterbore diameter', kind: 'length', hint: 'Room for the nut and washer, bored from the underside', showIf: fastenerKindIs('bolt-counterbore') },
+      { path: 'fasteners.counterboreDepth', label: 'Counterbore depth', kind: 'length', showIf: fastenerKindIs('bolt-counterbore') },
     ],
   },
   {
