@@ -10,6 +10,8 @@ import { probeRing } from '../math/polygon'
 import { fastenerFloorFindings, type FloorStack } from './floor'
 import { insideRadiusFindings, rootFindings, sheetFindings } from './cutting'
 import { panFindings } from './pans'
+import { placeAccess } from '../features/placement'
+import { MM_PER_INCH } from '../units'
 
 /** A 4x8 ft panel, 48 x 96 in nominal (US Product Standard PS 1-19): the default sheet. */
 export const SHEET_MM = { width: 1219.2, length: 2438.4 } as const
@@ -190,6 +192,24 @@ function floorFindings(input: FindingsInput): Finding[] {
   return []
 }
 
+/** The smallest hole saw an access opening is cut with (3/4 in; sizing to a tube tries no smaller). */
+const SMALLEST_ACCESS_SAW = 0.75 * MM_PER_INCH
+
+/**
+ * Openings left out because none has room: not even the smallest saw fits
+ * between the pans inside the tube wall (sizing a design to a small tube
+ * drops them then). Nothing can reach in after the tube is fixed.
+ */
+function accessRoomFindings(input: FindingsInput): Finding[] {
+  const p = input.params
+  if (p.access.enabled || placeAccess(p, p.casterOffset, SMALLEST_ACCESS_SAW) !== null) return []
+  return [{
+    code: 'access-no-room', severity: 'warning',
+    message: `No access opening fits between the pans inside the tube wall, not even a ${mm(SMALLEST_ACCESS_SAW)} hole saw: the plate has none, so the pan fasteners cannot be reached from inside the trunk and any counterweight goes in before the tube is fixed.`,
+    field: 'access.enabled', values: { smallestSaw: SMALLEST_ACCESS_SAW, insideRadius: p.tubeDiameter / 2 - p.tubeWall },
+  }]
+}
+
 export { labelFor }
 
 export function plateFindings(input: FindingsInput): Finding[] {
@@ -198,6 +218,7 @@ export function plateFindings(input: FindingsInput): Finding[] {
     ...edgeFindings(input, items),
     ...spacingFindings(input, items),
     ...trunkWallFindings(input),
+    ...accessRoomFindings(input),
     ...casterFindings(input),
     ...floorFindings(input),
     ...fastenerFloorFindings(input.params, input.stack),

@@ -188,6 +188,8 @@ function groupText(g: Group, u: MessageUnits): string {
       return `${who()} ${n > 1 ? 'lie' : 'lies'} outside the trunk, where ${n > 1 ? 'they show' : 'it shows'} and cannot be reached from inside.`
     case 'hole-crosses-trunk-wall':
       return `${who()} ${n > 1 ? 'reach' : 'reaches'} under the tube wall (to ${L(max(g, 'reach'))} from the centre, the wall's inside is at ${L(first(g, 'insideRadius'))}), which would stand on nothing there.`
+    case 'access-no-room':
+      return `No access opening fits between the pans inside the tube wall, not even a ${L(first(g, 'smallestSaw'))} hole saw: the plate has none, so the pan fasteners cannot be reached from inside the trunk and any counterweight goes in before the tube is fixed.`
     case 'caster-too-big-for-pocket':
       return `The caster's top plate (${L(first(g, 'diagonal'))} corner to corner) cannot pass through a ${L(first(g, 'pocketDiameter'))} pocket to reach the pan.`
     case 'wheel-swing':

@@ -14,6 +14,7 @@
 import { describe, expect, it } from 'vitest'
 import { buildPlate } from '../../../geometry/plate'
 import { deriveForTube, presetParams } from '../../../geometry/presets'
+import { problemRows } from '../../../geometry/checks/messages'
 
 const INCH = 25.4
 
@@ -144,4 +145,44 @@ describe('derived sizes keep their access openings wherever a hole saw fits betw
       }
     }
   }, 60_000)
+})
+
+describe('a derived size that drops its access openings says so', () => {
+  // By hand, the plain column on an 8 in tube (203.2 mm outside, 1/4 in wall): its three default pans
+  // (rim radius R = 66.675 mm) sit at d = 89 mm. A 3/4 in opening (r = 9.525 mm) must stay 1 mm inside
+  // the wall: a + r <= 101.6 - 6.35 - 1, so a <= 84.725 mm. Midway between two pans (half angle 60 deg,
+  // cos = 1/2) the law of cosines gives the distance to a pan centre sqrt(a^2 + d^2 - a d); 3/4 in of
+  // minimum wood to the rim needs sqrt(a^2 - 89 a + 7921) >= 66.675 + 9.525 + 19.05 = 95.25, i.e.
+  // a^2 - 89 a - 1151.56 >= 0, a >= (89 + sqrt(89^2 + 4 * 1151.56)) / 2 = 100.46 mm: beyond 84.725 mm.
+  // No 3/4 in opening fits, so none smaller than the parent's does either.
+  const size = deriveForTube(presetParams('plain-column')!, 8 * INCH)
+
+  it('is the case worked by hand', () => {
+    expect(size.casterCount).toBe(3)
+    expect(size.casterOffset).toBe(89)
+    expect(size.tubeWall).toBeCloseTo(6.35, 6)
+    expect((89 + Math.sqrt(89 ** 2 + 4 * (95.25 ** 2 - 89 ** 2))) / 2).toBeGreaterThan(101.6 - 6.35 - 1 - 9.525)
+    expect(size.access.enabled).toBe(false)
+  })
+
+  it('carries a warning on the plate, naming the 3/4 in saw', () => {
+    const found = buildPlate(size).findings.filter((f) => f.code === 'access-no-room')
+    expect(found).toHaveLength(1)
+    expect(found[0]!.severity).toBe('warning')
+    expect(found[0]!.values?.smallestSaw).toBeCloseTo(0.75 * INCH, 6)
+    // The Checks list's row, in the reader's units: 3/4 in is 19.05 mm (1 in = 25.4 mm, NIST SP 811).
+    const rows = problemRows(buildPlate(size), { units: 'in', suggest: false }).filter((r) => r.code === 'access-no-room')
+    expect(rows).toHaveLength(1)
+    expect(rows[0]!.text).toContain('3/4"')
+    expect(rows[0]!.text).toMatch(/counterweight goes in before the tube/)
+    const mmRow = problemRows(buildPlate(size), { units: 'mm', suggest: false }).find((r) => r.code === 'access-no-room')!
+    expect(mmRow.text).toMatch(/19(\.1)? mm/)
+  })
+
+  it('is not raised where an opening would fit (the same shape on a 12 in tube, openings on)', () => {
+    const roomy = deriveForTube(presetParams('plain-column')!, 12 * INCH)
+    expect(roomy.access.enabled).toBe(true)
+    const off = { ...roomy, access: { ...roomy.access, enabled: false } }
+    expect(buildPlate(off).findings.map((f) => f.code)).not.toContain('access-no-room')
+  })
 })
