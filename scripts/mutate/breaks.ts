@@ -45,6 +45,9 @@ export const BREAKS: Break[] = [
   { id: 'strip-length-run-only', area: 'geometry', file: 'geometry/skirt/strips.ts', find: "if (profile === 'straight') return Math.hypot(run, rise)", replace: "if (profile === 'straight') return run + rise", what: 'straight skirt strips cut too long', tests: ['tests/unit/geometry/skirt.test.ts'] },
   { id: 'wrap-radius-for-diameter', area: 'exports', file: 'geometry/export/tube-wrap-pdf.ts', find: 'Math.PI * plate.trunk.diameter', replace: 'Math.PI * plate.trunk.diameter / 2', what: 'tube wrap half as long as the tube round', tests: ['tests/unit/export/tube-wrap.test.ts'] },
 
+  { id: 'no-access-room-silent', area: 'geometry', file: 'geometry/checks/findings.ts', find: '    ...accessRoomFindings(input),', replace: '', what: 'a size with no room for access openings says nothing (counterweight and pan screws out of reach)', tests: ['tests/unit/geometry/families.test.ts'] },
+  { id: 'block-fit-zero-as-count', area: 'statics', file: 'components/stability/StabilityFigures.vue', find: '  if (a.layout.perLayer > 0) return `${a.layout.perLayer} fit a layer`', replace: '  return `${a.layout.perLayer} fit a layer`', what: 'the panel says "0 fit a layer" instead of that no block fits', tests: ['tests/nuxt/stability-figures.test.ts'] },
+
   // Tiling.
   { id: 'tiles-ignore-overlap', area: 'tiling', file: 'geometry/export/tiling.ts', find: '  const step = printable - overlap\n', replace: '  const step = printable\n', what: 'tiled sheets do not overlap for taping', tests: ['tests/unit/export/tiling.test.ts'] },
   { id: 'tiles-one-short', area: 'tiling', file: 'geometry/export/tiling.ts', find: 'return Math.max(1, Math.ceil((extent - overlap) / step - 1e-9))', replace: 'return Math.max(1, Math.floor((extent - overlap) / step - 1e-9))', what: 'a column of the template is missing', tests: ['tests/unit/export/tiling.test.ts'] },
