@@ -3,10 +3,11 @@
 // (pdf-lib, dxf-parser, poppler's pdftoppm). Expected values come from those
 // readings, hand values and clipper2-ts called here, not from the exporters.
 import { execFileSync } from 'node:child_process'
-import { mkdirSync, statSync, writeFileSync } from 'node:fs'
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { EndType, JoinType, areaD, inflatePathsD } from 'clipper2-ts'
 import DxfParser, { type ICircleEntity, type IDxf, type ILwpolylineEntity } from 'dxf-parser'
 import { PDFDocument } from 'pdf-lib'
+import { PNG } from 'pngjs'
 import { beforeAll, describe, expect, it, inject } from 'vitest'
 import { PRESETS } from '../../geometry'
 import { bodyStream, pageStream, strokedPaths, type Pt } from '../unit/export/pdf-read'
@@ -396,9 +397,38 @@ describe('the picture check', () => {
     expect(centre).toBeGreaterThanOrEqual(0)
     for (const [page, name] of [[1, 'template-cover'], [centre + 2, 'template-sheet']] as const) {
       execFileSync('/usr/bin/pdftoppm', ['-png', '-r', '60', '-f', String(page), '-l', String(page), '-singlefile', pdf, `${shots}/${name}`])
-      const png = `${shots}/${name}.png`
-      // 60 dpi of a Letter page: 510x660 px (or turned), so a real picture is well above a few kB.
-      expect(statSync(png).size).toBeGreaterThan(10_000)
+      // 60 dpi of a Letter page, 8.5 x 11 in (ASME Y14.1): 510 x 660 px, either way round.
+      const png = PNG.sync.read(readFileSync(`${shots}/${name}.png`))
+      expect([png.width, png.height].sort()).toEqual([510, 660].sort())
+    }
+    // Measured in pixels: a sheet holding a whole routed opening of the cut file (dxf-parser's CIRCLE on RP-INSIDE-CUT)
+    // draws it where and as large as the cut file says, at 1:1. Page point = (plate mm - window corner + 6.35 mm margin)
+    // x 72 / 25.4 (a quarter-inch margin, the writer's documented figure; 25.4 mm per inch, NIST SP 811).
+    const windows = sheetWindows(doc)
+    const holes = circlesMm.filter(c => c.layer === 'RP-INSIDE-CUT' && c.radius > 10)
+    const inside = (w: typeof windows[number], c: ICircleEntity) => c.center.x - c.radius > w.minX + 2 && c.center.x + c.radius < w.maxX - 2 && c.center.y - c.radius > w.minY + 2 && c.center.y + c.radius < w.maxY - 2
+    const sheet = windows.findIndex(w => holes.some(c => inside(w, c)))
+    expect(sheet).toBeGreaterThanOrEqual(0)
+    const dpi = 200
+    execFileSync('/usr/bin/pdftoppm', ['-png', '-r', String(dpi), '-f', String(sheet + 2), '-l', String(sheet + 2), '-singlefile', pdf, `${shots}/template-opening-sheet`])
+    const png = PNG.sync.read(readFileSync(`${shots}/template-opening-sheet.png`))
+    const dark = (x: number, y: number) => {
+      const i = (Math.round(y) * png.width + Math.round(x)) * 4
+      return png.data[i]! + png.data[i + 1]! + png.data[i + 2]! < 3 * 128
+    }
+    const w = windows[sheet]!
+    const px = (mm: number) => (mm / 25.4) * dpi
+    for (const c of holes.filter(c => inside(w, c))) {
+      const cx = px(c.center.x - w.minX + 6.35)
+      const cy = png.height - px(c.center.y - w.minY + 6.35)
+      const r = px(c.radius)
+      // 72 rays: a dark stroke within 2 px (0.25 mm at 200 dpi) of the radius on nearly all of them.
+      let hits = 0
+      for (let k = 0; k < 72; k++) {
+        const a = (k * Math.PI) / 36
+        if ([-2, -1, 0, 1, 2].some(d => dark(cx + (r + d) * Math.cos(a), cy + (r + d) * Math.sin(a)))) hits++
+      }
+      expect(hits, `opening at ${c.center.x.toFixed(1)}, ${c.center.y.toFixed(1)} mm, r ${c.radius.toFixed(2)} mm`).toBeGreaterThanOrEqual(68)
     }
   })
 })

@@ -4,6 +4,10 @@
 // from, measured by independent means: a polygon engine (polygon-clipping),
 // the cubic Bezier formula, the presets' own typed numbers, and the tiling
 // arithmetic done by hand with the paper sizes of ISO 216.
+import { execFileSync } from 'node:child_process'
+import { mkdtempSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import DxfParser, { type ICircleEntity, type ILwpolylineEntity } from 'dxf-parser'
 import { Window } from 'happy-dom'
 import { PDFDocument } from 'pdf-lib'
@@ -214,10 +218,34 @@ describe('template of a real plate', () => {
   })
 
   it.each(plates.map(({ id, plate }) => ({ id, plate })))('$id: a cover and one page per sheet the plate reaches', async ({ plate }) => {
-    const expected = tilePlate(plate, { paper: 'a4', orientation: 'portrait' }).printed
-    expect(expected).toBeGreaterThan(1)
-    const doc = await PDFDocument.load(await renderTemplatePdf(plate, { paper: 'a4', orientation: 'portrait', font, units: 'mm' }))
-    expect(doc.getPageCount()).toBe(expected + 1)
+    const bytes = await renderTemplatePdf(plate, { paper: 'a4', orientation: 'portrait', font, units: 'mm' })
+    const doc = await PDFDocument.load(bytes)
+    // The pages' own labels (R<row>-C<col>, the largest such word on each page, by poppler's pdftotext -bbox),
+    // matched to the hand grid's cells, not to the tiler's count: together they cover the plate, each carries a
+    // share of it no other page does (polygon-clipping), and no label comes twice.
+    const dir = mkdtempSync(join(tmpdir(), 'rp-pages-'))
+    writeFileSync(join(dir, 't.pdf'), bytes)
+    const html = execFileSync('pdftotext', ['-bbox', join(dir, 't.pdf'), '-']).toString('utf8')
+    const pages = html.split('<page ').slice(1)
+    expect(pages).toHaveLength(doc.getPageCount())
+    const cells = gridByHand(plate.outline)
+    const cols = cells.filter((c) => c[2]![1] === cells[0]![2]![1]).length
+    const labels = pages.slice(1).map((page) => {
+      const found = [...page.matchAll(/<word xMin="[\d.]+" yMin="([\d.]+)" xMax="[\d.]+" yMax="([\d.]+)">R(\d+)-C(\d+)<\/word>/g)]
+        .map((m) => ({ size: Number(m[2]) - Number(m[1]), row: Number(m[3]), col: Number(m[4]) }))
+        .sort((a, b) => b.size - a.size)
+      expect(found.length).toBeGreaterThan(0)
+      return found[0]!
+    })
+    expect(new Set(labels.map((l) => `${l.row}-${l.col}`)).size).toBe(labels.length)
+    expect(labels.length).toBeGreaterThan(1)
+    const shape = [plate.outline.map(([x, y]) => [x, y] as [number, number])]
+    const windows = labels.map((l) => cells[(l.row - 1) * cols + (l.col - 1)]!)
+    expect(multiArea(polygonClipping.difference(shape, ...windows.map((w) => [w])))).toBeLessThan(1e-6)
+    windows.forEach((w, i) => {
+      const others = windows.filter((_, k) => k !== i).map((o) => [o])
+      expect(multiArea(polygonClipping.difference(polygonClipping.intersection(shape, [w]), ...others))).toBeGreaterThan(0)
+    })
     // Every sheet is A4 portrait, 595.28 x 841.89 pt (ISO 216; 1 pt = 1/72 in).
     for (const page of doc.getPages().slice(1)) {
       expect(page.getWidth()).toBeCloseTo(595.28, 1)

@@ -1,7 +1,8 @@
 // The template read back with pdf-lib (PDFDocument.load) and its content
 // streams inflated with node:zlib (Flate, RFC 1950).
 import { execFileSync } from 'node:child_process'
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { PNG } from 'pngjs'
 import { join } from 'node:path'
 import { inflateSync } from 'node:zlib'
 import { PDFArray, PDFDocument, PDFRawStream, PDFRef, type PDFPage } from 'pdf-lib'
@@ -169,12 +170,48 @@ describe('picture check', () => {
     const target = holding[0]!
     const pageNo = printed.indexOf(target) + 2
     execFileSync(pdftoppm, ['-png', '-r', '50', '-f', '1', '-l', '1', '-singlefile', pdf, join(out, 'cover')])
-    execFileSync(pdftoppm, ['-png', '-r', '50', '-f', String(pageNo), '-l', String(pageNo), '-singlefile', pdf, join(out, `sheet-${target.label}`)])
+    const dpi = 100
+    execFileSync(pdftoppm, ['-png', '-r', String(dpi), '-f', String(pageNo), '-l', String(pageNo), '-singlefile', pdf, join(out, `sheet-${target.label}`)])
     // At 50 dpi a Letter page is 425 x 550 px: the rasteriser read the page at its true size.
     const png = readFileSync(join(out, 'cover.png'))
     expect(png.readUInt32BE(16)).toBe(425)
     expect(png.readUInt32BE(20)).toBe(550)
-    expect(existsSync(join(out, `sheet-${target.label}.png`))).toBe(true)
+    // The pocket sheet, measured in pixels: its pocket circle is drawn full size, as round as it is wide.
+    const sheet = PNG.sync.read(readFileSync(join(out, `sheet-${target.label}.png`)))
+    // Letter at 100 dpi, 8.5 x 11 in (ASME Y14.1), either way round.
+    expect([sheet.width, sheet.height].sort()).toEqual([1100, 850].sort())
+    // A point inside the pocket: its label, found by poppler's own text boxes (pdftotext -bbox), in px.
+    const box = execFileSync('pdftotext', ['-bbox', '-f', String(pageNo), '-l', String(pageNo), pdf, '-']).toString('utf8')
+    const m = /<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">pocket<\/word>/.exec(box)!
+    expect(m).not.toBeNull()
+    const px = dpi / 72
+    const label: Point = [((Number(m[1]) + Number(m[3])) / 2) * px, ((Number(m[2]) + Number(m[4])) / 2) * px]
+    // Outline green (pocket walls are cut lines): green well above red, and not a pale tint.
+    const green = (x: number, y: number) => {
+      const i = (y * sheet.width + x) * 4
+      const [r, g, b] = [sheet.data[i]!, sheet.data[i + 1]!, sheet.data[i + 2]!]
+      return g - r > 40 && r + g + b < 450
+    }
+    const r = (pocket.diameter / 2 / 25.4) * dpi
+    /** Bounding box of the green pixels between `inner` and `outer` px from `c`. */
+    const ringBox = (c: Point, inner: number, outer: number) => {
+      const b = { minX: Infinity, maxX: -Infinity, minY: Infinity, maxY: -Infinity }
+      for (let y = Math.max(0, Math.floor(c[1] - outer)); y <= Math.min(sheet.height - 1, c[1] + outer); y++) {
+        for (let x = Math.max(0, Math.floor(c[0] - outer)); x <= Math.min(sheet.width - 1, c[0] + outer); x++) {
+          const d = Math.hypot(x - c[0], y - c[1])
+          if (d >= inner && d <= outer && green(x, y)) Object.assign(b, { minX: Math.min(b.minX, x), maxX: Math.max(b.maxX, x), minY: Math.min(b.minY, y), maxY: Math.max(b.maxY, y) })
+        }
+      }
+      return b
+    }
+    // The label sits off the pocket's centre: a rough ring first, then a tight one round the centre it gives.
+    const rough = ringBox(label, r - 0.8 * dpi, r + 0.6 * dpi)
+    const b = ringBox([(rough.minX + rough.maxX) / 2, (rough.minY + rough.maxY) / 2], r - 0.3 * dpi, r + 0.3 * dpi)
+    // Outer extent of the stroke: the diameter plus one stroke width and antialiasing (under 4 px, 1 mm, at 100 dpi); 25.4 mm per inch (NIST SP 811).
+    for (const across of [b.maxX - b.minX, b.maxY - b.minY]) {
+      expect(across).toBeGreaterThan(2 * r - 1)
+      expect(across).toBeLessThan(2 * r + 4)
+    }
   })
 })
 

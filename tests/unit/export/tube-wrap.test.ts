@@ -1,7 +1,8 @@
 import { execFileSync } from 'node:child_process'
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs'
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { PDFDocument } from 'pdf-lib'
+import { PNG } from 'pngjs'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { planTubeWrap, renderTubeWrapPdf, tubeWrapLayout } from '../../../geometry/export/tube-wrap-pdf'
 import { loadTemplateFontNode } from '../../../geometry/export/fonts-node'
@@ -59,13 +60,44 @@ describe('renderTubeWrapPdf', () => {
     expect([width, height]).toEqual([792, 612])
   })
 
-  it('renders a sheet to PNG for a look (poppler-utils pdftoppm)', async () => {
+  it('renders the first sheet (poppler-utils pdftoppm) with the strip 6 in tall and the split notch 1 in high, measured in pixels', async () => {
     const out = join(process.cwd(), 'test-results', 'export')
     mkdirSync(out, { recursive: true })
     const plate: Plate = fixturePlate({ tubeDiameter: 305 })
     const pdf = join(out, 'tube-wrap.pdf')
     writeFileSync(pdf, await renderTubeWrapPdf(plate, { paper: 'letter', font, meta: { designName: 'Wrap test', revision: 1, date: '2025-03-01' } }))
-    execFileSync('/usr/bin/pdftoppm', ['-png', '-r', '50', '-f', '2', '-l', '2', '-singlefile', pdf, join(out, 'tube-wrap-A1')])
-    expect(existsSync(join(out, 'tube-wrap-A1.png'))).toBe(true)
+    const dpi = 100
+    execFileSync('/usr/bin/pdftoppm', ['-png', '-r', String(dpi), '-f', '2', '-l', '2', '-singlefile', pdf, join(out, 'tube-wrap-A1')])
+    const png = PNG.sync.read(readFileSync(join(out, 'tube-wrap-A1.png')))
+    // Letter landscape, 11 x 8.5 in (ASME Y14.1), at 100 dpi.
+    expect([png.width, png.height]).toEqual([1100, 850])
+    const dark = (x: number, y: number) => {
+      const i = (y * png.width + x) * 4
+      return png.data[i]! + png.data[i + 1]! + png.data[i + 2]! < 3 * 128
+    }
+    const longest = (n: number, at: (k: number) => boolean) => {
+      let best = 0
+      for (let k = 0, run = 0; k < n; k++) best = Math.max(best, (run = at(k) ? run + 1 : 0))
+      return best
+    }
+    /** Centres of the groups of adjacent indices, e.g. the rows of one stroke. */
+    const centres = (list: number[]) => list.reduce<number[][]>((g, k) => (g.length && k - g.at(-1)!.at(-1)! === 1 ? g.at(-1)!.push(k) : g.push([k]), g), []).map((g) => (g[0]! + g.at(-1)!) / 2)
+    // The strip's long sides: the only rows holding a dark run over 8 in long.
+    const sides = centres([...Array(png.height).keys()].filter((y) => longest(png.width, (x) => dark(x, y)) > 8 * dpi))
+    expect(sides).toHaveLength(2)
+    // 6 in (152.4 mm) strip, stroke centre to centre, within 1.5 px of rasterising.
+    expect(sides[1]! - sides[0]!).toBeGreaterThan(6 * dpi - 1.5)
+    expect(sides[1]! - sides[0]!).toBeLessThan(6 * dpi + 1.5)
+    // The index line: the leftmost column holding a dark run over 5 in long.
+    const left = [...Array(png.width).keys()].find((x) => longest(png.height, (y) => dark(x, y)) > 5 * dpi)!
+    const bottom = Math.round(sides[1]!)
+    // The fixture's first notch sits on the index line: half of it, 30 degrees of a 305 mm tube = pi x 305 / 24 mm wide, 25.4 mm high.
+    const up = [...Array(2 * dpi).keys()].find((k) => k > 3 && dark(left + dpi / 4, bottom - k))!
+    expect(up).toBeGreaterThan(dpi - 2.5)
+    expect(up).toBeLessThan(dpi + 2.5)
+    const halfWidth = ((Math.PI * 305) / 24 / 25.4) * dpi
+    const across = [...Array(3 * dpi).keys()].find((k) => k > 3 && dark(left + k, bottom - dpi / 2))!
+    expect(across).toBeGreaterThan(halfWidth - 2.5)
+    expect(across).toBeLessThan(halfWidth + 2.5)
   })
 })

@@ -4,6 +4,7 @@
 import { describe, expect, it } from 'vitest'
 import DxfParser from 'dxf-parser'
 import { PDFDocument } from 'pdf-lib'
+import polygonClipping from 'polygon-clipping'
 import { buildPlate, deriveForTube, inchesToMm, plateParamsSchema, presetParams, renderCutDxf } from '../../../geometry'
 import { planSheets, planSheetsAsync, renderLayoutDxf, renderLayoutPdf, type PlanEntry } from '../../../geometry/nest'
 import { gap, shoelace, type Pt } from './checks'
@@ -93,8 +94,16 @@ describe('planSheets', () => {
     expect(plan.panels).toBe(0)
     expect(plan.sheetsToBuy).toBe(plan.layouts.length)
     expect(plan.glue.area).toBeCloseTo(2 * 2 * netArea(e), -1)
-    // 6 mil film (0.1524 mm): volume = area x film.
-    expect(plan.glue.volume).toBeCloseTo(plan.glue.area * 0.1524, 3)
+    // The hand net area agrees with polygon-clipping's difference of the outline less each hole (as a 720-gon, area pi r^2 sin(2 pi / 720) / (2 pi / 720)).
+    const ring = (x: number, y: number, r: number): Pt[] => Array.from({ length: 720 }, (_, k) => [x + r * Math.cos((k * Math.PI) / 360), y + r * Math.sin((k * Math.PI) / 360)] as Pt)
+    const clipped = polygonClipping.difference([e.plate.outline as Pt[]], ...e.plate.holes.map((h) => [ring(h.x, h.y, h.diameter / 2)]))
+    const lost = e.plate.holes.reduce((sum, h) => sum + (Math.PI * (h.diameter / 2) ** 2) * (1 - Math.sin(Math.PI / 360) / (Math.PI / 360)), 0)
+    const clippedArea = clipped.reduce((sum, poly) => sum + poly.reduce((a, r, k) => a + (k === 0 ? 1 : -1) * Math.abs(shoelace(r.slice(0, -1) as Pt[])), 0), 0) - lost
+    expect(clippedArea).toBeCloseTo(netArea(e), -1)
+    // Volume by hand: the hand area x a 6 mil film (0.006 in = 0.1524 mm; a product setting, common practice from memory).
+    expect(plan.glue.volume).toBeCloseTo(2 * 2 * netArea(e) * 0.1524, -1)
+    // In US gallons: 231 in3 each (NIST Handbook 44, Appendix C), 1 in = 25.4 mm (NIST SP 811).
+    expect(plan.glue.volume / 25.4 ** 3 / 231).toBeCloseTo(((2 * 2 * netArea(e)) / 25.4 ** 2) * 0.006 / 231, 6)
   })
 
   it('glued first: sheets = panels x layers, whole-sheet glue lines, yield by the shoelace formula', () => {

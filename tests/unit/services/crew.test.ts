@@ -22,8 +22,13 @@ describe('link and session tokens', () => {
 describe('session policy from the environment', () => {
   it('reads minutes and days, and falls back on anything unreadable', () => {
     expect(policyFromEnv({ SESSION_IDLE_MINUTES: '30', SESSION_MAX_DAYS: '2' })).toEqual({ idleMinutes: 30, maxDays: 2 })
-    expect(policyFromEnv({ SESSION_IDLE_MINUTES: 'soon', SESSION_MAX_DAYS: '-1' })).toEqual(defaultPolicy)
-    expect(policyFromEnv({})).toEqual(defaultPolicy)
+    // Product rule, written by hand from the README ("default 720" minutes idle, "default 30" days), not read from the code.
+    const documented = { idleMinutes: 720, maxDays: 30 }
+    expect(defaultPolicy).toEqual(documented)
+    expect(policyFromEnv({ SESSION_IDLE_MINUTES: 'soon', SESSION_MAX_DAYS: '-1' })).toEqual(documented)
+    expect(policyFromEnv({})).toEqual(documented)
+    // One readable, one not: each falls back on its own.
+    expect(policyFromEnv({ SESSION_IDLE_MINUTES: '0', SESSION_MAX_DAYS: '7' })).toEqual({ idleMinutes: 720, maxDays: 7 })
   })
 })
 
