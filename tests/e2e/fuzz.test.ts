@@ -5,9 +5,6 @@
 // and a refused change stores nothing (every table's contents hashed
 // before and after). Bounded: a few hundred requests on a fixed seed
 // (FC_SEED picks another).
-import { readdirSync } from 'node:fs'
-import { join, relative } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import fc from 'fast-check'
 import postgres from 'postgres'
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
@@ -16,28 +13,11 @@ import { memberships, shops, users } from '../../server/database/schema'
 import { hasher } from '../../scripts/seed'
 import { api, freshAddress, signIn } from './support/api'
 import { plateDefaults } from './support/plate'
+import { apiRoutes, type ApiRoute } from './support/routes'
 
-interface Route { method: string; template: string }
+type Route = ApiRoute
 
-/** Every route file (`name.method.ts`) under server/api, as a method and a path with `[param]` holes. */
-function discoverRoutes(): Route[] {
-  const apiDir = fileURLToPath(new URL('../../server/api', import.meta.url))
-  const out: Route[] = []
-  const walk = (dir: string) => {
-    for (const entry of readdirSync(dir, { withFileTypes: true })) {
-      const full = join(dir, entry.name)
-      if (entry.isDirectory()) { walk(full); continue }
-      const m = /^(.*)\.(get|post|put|patch|delete)\.ts$/.exec(entry.name)
-      if (!m) continue
-      const rel = relative(apiDir, join(dir, m[1]!)).split('/').filter(s => s !== 'index')
-      out.push({ method: m[2]!.toUpperCase(), template: `/api/${rel.join('/')}`.replace(/\/$/, '') })
-    }
-  }
-  walk(apiDir)
-  return out.sort((a, b) => `${a.template} ${a.method}`.localeCompare(`${b.template} ${b.method}`))
-}
-
-const routes = discoverRoutes()
+const routes = apiRoutes()
 const roleNames = ['anonymous', 'lead', 'designer', 'builder', 'viewer', 'other'] as const
 type RoleName = (typeof roleNames)[number]
 const cookies = {} as Record<RoleName, string | undefined>

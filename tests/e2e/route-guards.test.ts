@@ -18,8 +18,7 @@
 // fresh design, unit, loan, share, invitation or member per cell where the
 // request uses it up.
 import { execFileSync } from 'node:child_process'
-import { readdirSync, readFileSync } from 'node:fs'
-import { join, relative } from 'node:path'
+import { readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { beforeAll, describe, expect, it, inject } from 'vitest'
 import { createDatabase } from '../../server/utils/db'
@@ -29,6 +28,7 @@ import { api, freshAddress } from './support/api'
 import { makeShop, signInAs, uniqueEmail, type TestPerson } from './support/crew'
 import { makePng, upload } from './support/files'
 import { waitForMail } from './support/mail'
+import { apiRoutes } from './support/routes'
 
 const roles = ['lead', 'designer', 'builder', 'viewer'] as const
 type Role = (typeof roles)[number]
@@ -330,22 +330,9 @@ const GUARDS: Guard[] = [
 
 // ---------------------------------------------------------------------------
 
-/** Every route file (`name.method.ts`) under server/api, as `METHOD /api/path/[param]`. */
+/** Every route file under server/api, as `METHOD /api/path/[param]`. */
 function routeFiles(): string[] {
-  const apiDir = fileURLToPath(new URL('../../server/api', import.meta.url))
-  const out: string[] = []
-  const walk = (dir: string) => {
-    for (const entry of readdirSync(dir, { withFileTypes: true })) {
-      const full = join(dir, entry.name)
-      if (entry.isDirectory()) { walk(full); continue }
-      const m = /^(.*)\.(get|post|put|patch|delete)\.ts$/.exec(entry.name)
-      if (!m) continue
-      const rel = relative(apiDir, join(dir, m[1]!)).split('/').filter(s => s !== 'index')
-      out.push(`${m[2]!.toUpperCase()} /api/${rel.join('/')}`.replace(/\/$/, ''))
-    }
-  }
-  walk(apiDir)
-  return out.sort()
+  return apiRoutes().map(r => `${r.method} ${r.template}`).sort()
 }
 
 /** What a cell must answer: a status, or `ok` (any 2xx). */
